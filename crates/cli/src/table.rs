@@ -1,0 +1,203 @@
+//! The readable table: the core's report laid out for a terminal.
+//!
+//! Whole mmHg and tenths of a cm only: the ranges show why more digits
+//! would be false precision.
+
+use std::fmt::Write;
+
+use plumbline_core::report::{Report, Sweep};
+use plumbline_core::target::Status;
+
+fn rounded(v: f64) -> String {
+    format!("{:.0}", v.round() + 0.0)
+}
+
+fn signed_cm(v: f64) -> String {
+    format!("{v:+.1}")
+}
+
+fn status_mark(status: Option<Status>) -> &'static str {
+    match status {
+        Some(Status::Meets) => "[ok]",
+        Some(Status::Below) => "[LOW]",
+        Some(Status::Above) => "[HIGH]",
+        None => "[--]",
+    }
+}
+
+/// The report as text.
+pub fn render(report: &Report) -> String {
+    let mut out = String::new();
+    // Writing to a String cannot fail; the results are ignored for that reason.
+    let _ = write_report(&mut out, report);
+    out
+}
+
+fn write_report(out: &mut String, r: &Report) -> std::fmt::Result {
+    writeln!(out, "PLUMBLINE perfusion check")?;
+    if let Some(position) = &r.position {
+        writeln!(out, "Position: {position}")?;
+    }
+    writeln!(out)?;
+
+    writeln!(out, "Heights above the heart reference (cm)")?;
+    for h in &r.heights {
+        let why = h
+            .largest_contributor
+            .as_deref()
+            .map_or(String::new(), |c| format!(", mostly {c}"));
+        writeln!(
+            out,
+            "  {:<34} {:>6} ± {:<4.1} {}{why}",
+            h.label,
+            signed_cm(h.above_heart_cm),
+            h.uncertainty_cm,
+            h.provenance.label()
+        )?;
+    }
+    writeln!(out)?;
+
+    if !r.arterial.is_empty() {
+        writeln!(out, "Arterial sources")?;
+        for a in &r.arterial {
+            let primary = if a.primary {
+                " (drives the results)"
+            } else {
+                ""
+            };
+            let sd = match (a.systolic_mmhg, a.diastolic_mmhg) {
+                (Some(s), Some(d)) => format!("{}/{} ", rounded(s), rounded(d)),
+                _ => String::new(),
+            };
+            let mean = a
+                .mean_mmhg
+                .map_or(String::new(), |m| format!("mean {}", rounded(m)));
+            let at_heart = a.mean_at_heart_mmhg.map_or(String::new(), |m| {
+                format!(", mean at heart level {}", rounded(m))
+            });
+            writeln!(
+                out,
+                "  {}{primary}: {}, {}: {sd}{mean} mmHg{at_heart}",
+                a.id,
+                a.method.label(),
+                a.level
+            )?;
+            if let Some(basis) = &a.mean_basis {
+                writeln!(
+                    out,
+                    "      mean {basis}; accuracy ±{} mmHg",
+                    rounded(a.accuracy_mmhg)
+                )?;
+            }
+        }
+        for c in &r.cross_checks {
+            let mark = if c.agree { "[ok]" } else { "[CHECK]" };
+            writeln!(out, "  {mark} {}", c.words)?;
+        }
+        writeln!(out)?;
+    }
+
+    for organ in &r.organs {
+        writeln!(
+            out,
+            "{}: checked at the {} ({} cm)",
+            organ.label,
+            organ.level_label,
+            signed_cm(organ.level_height_cm)
+        )?;
+        for m in &organ.metrics {
+            let largest = m
+                .largest_contributor
+                .as_deref()
+                .map_or(String::new(), |c| format!("; most from {c}"));
+            writeln!(
+                out,
+                "  {:<44} {:>4} mmHg  (range {} to {}{largest})",
+                m.label,
+                rounded(m.value_mmhg),
+                rounded(m.lower_mmhg),
+                rounded(m.upper_mmhg)
+            )?;
+            if let Some(g) = &m.grade {
+                writeln!(out, "      {}", g.words)?;
+            }
+            for q in &m.assumed {
+                writeln!(out, "      uses an ASSUMED {}", q.label())?;
+            }
+            for t in &m.targets {
+                writeln!(
+                    out,
+                    "      {} {}: {}",
+                    status_mark(t.status),
+                    t.target,
+                    t.words
+                )?;
+                for need in &t.required {
+                    writeln!(out, "           to meet it now: {}", need.words)?;
+                }
+            }
+        }
+        for miss in &organ.missing {
+            writeln!(out, "  {}: needs {}", miss.label, miss.needs.join("; "))?;
+        }
+        writeln!(out)?;
+    }
+
+    if !r.not_checked.is_empty() {
+        writeln!(out, "Not checked")?;
+        for n in &r.not_checked {
+            writeln!(out, "  {}: needs {}", n.label, n.needs.join("; "))?;
+        }
+        writeln!(out)?;
+    }
+
+    if !r.sweeps.is_empty() {
+        write_sweeps(out, &r.sweeps)?;
+    }
+
+    if !r.warnings.is_empty() {
+        writeln!(out, "Warnings")?;
+        for w in &r.warnings {
+            writeln!(out, "  ! {w}")?;
+        }
+        writeln!(out)?;
+    }
+    writeln!(out, "{}", r.caution)
+}
+
+/// Angles shown in the sweep table (the report has every 5°).
+const SHOWN: [f64; 7] = [0.0, 15.0, 30.0, 45.0, 60.0, 75.0, 90.0];
+
+fn write_sweeps(out: &mut String, sweeps: &[Sweep]) -> std::fmt::Result {
+    writeln!(out, "Site reading needed by backrest angle (mmHg)")?;
+    write!(out, "  {:<52}", "target (site, component)")?;
+    for deg in SHOWN {
+        write!(out, "{:>6}", format!("{deg:.0}°"))?;
+    }
+    writeln!(out)?;
+    for s in sweeps {
+        let component = s.component.map_or("", |c| c.label());
+        let name = format!("{} ({}, {component})", s.target, s.site);
+        write!(out, "  {name:<52}")?;
+        for deg in SHOWN {
+            let point = s
+                .points
+                .iter()
+                .find(|p| (p.backrest_deg - deg).abs() < 1e-9);
+            let cell = point.map_or("-".to_owned(), |p| {
+                let v = if s.at_least {
+                    p.needed_mmhg.ceil()
+                } else {
+                    p.needed_mmhg.floor()
+                };
+                format!("{v:.0}")
+            });
+            write!(out, "{cell:>6}")?;
+        }
+        writeln!(out)?;
+    }
+    if let Some(first) = sweeps.first() {
+        writeln!(out, "  ({})", first.note)?;
+    }
+    writeln!(out)
+}

@@ -1,0 +1,445 @@
+//! The case document: a versioned JSON description of one check.
+//!
+//! The document holds what the clinician entered, in the units they entered
+//! it, and nothing that identifies a patient. It is read in two steps: first
+//! the format name and version, so a newer document gets a clear "version"
+//! message rather than a list of unknown fields; then the whole shape, with
+//! every problem reported at its path. `docs/case-format.md` describes it.
+
+use std::collections::BTreeMap;
+
+use serde::{Deserialize, Deserializer, Serialize, Serializer};
+
+use crate::error::{Error, ErrorKind, Errors};
+use crate::geometry::{PositionSpec, Segment};
+use crate::landmark::Landmark;
+use crate::organ::Organ;
+use crate::reading::{Level, MeanRule, Method, Quantity};
+use crate::target::TargetSpec;
+use crate::units::{DensityEntry, LengthEntry, PressureEntry};
+
+/// The value of the document's `format` field.
+pub const FORMAT: &str = "plumbline-case";
+/// The newest document version this build reads and writes.
+pub const VERSION: u32 = 1;
+/// The largest document accepted, in bytes. A case is a few kilobytes; the
+/// cap keeps a hostile link or file from costing memory.
+pub const MAX_BYTES: usize = 256 * 1024;
+
+/// One check, as written by the clinician.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Case {
+    /// Always `"plumbline-case"`.
+    pub format: String,
+    /// The document version, currently 1.
+    pub version: u32,
+    /// The patient's size, used by the geometry.
+    #[serde(default, skip_serializing_if = "PatientSpec::is_empty")]
+    pub patient: PatientSpec,
+    /// The position, from which landmark heights are estimated.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub position: Option<PositionSpec>,
+    /// Segment lengths measured on the patient.
+    #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
+    pub segments: BTreeMap<Segment, LengthEntry>,
+    /// Landmark heights measured above the heart reference; they win over
+    /// the position's estimates.
+    #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
+    pub heights: BTreeMap<Landmark, HeightSpec>,
+    /// Fluid densities to use instead of the published defaults.
+    #[serde(default, skip_serializing_if = "DensitySpec::is_empty")]
+    pub densities: DensitySpec,
+    /// How a mean is estimated from systolic and diastolic.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub mean_rule: Option<MeanRule>,
+    /// Arterial pressure sources (lines and cuffs).
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub arterial: Vec<ArterialSpec>,
+    /// The `id` of the arterial source that drives the organ results; the
+    /// first invasive source, else the first, when left out.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub primary_arterial: Option<String>,
+    /// The other pressures, one of each at most.
+    #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
+    pub readings: BTreeMap<Quantity, ReadingSpec>,
+    /// Values assumed where nothing was measured (an assumed ICP). Used only
+    /// when the reading is absent, and flagged in every result that uses them.
+    #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
+    pub assume: BTreeMap<Quantity, AssumedSpec>,
+    /// The landmark an organ is checked at, for organs with a choice.
+    #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
+    pub organ_levels: BTreeMap<Organ, Landmark>,
+    /// The targets; the defaults when left out.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub targets: Option<Vec<TargetSpec>>,
+    /// The patient's baseline arterial pressure, for relative targets.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub baseline: Option<BaselineSpec>,
+}
+
+/// The patient's size.
+#[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct PatientSpec {
+    /// Standing body height.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub height: Option<LengthEntry>,
+    /// Haematocrit in percent, to adjust blood density.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub haematocrit_percent: Option<f64>,
+}
+
+impl PatientSpec {
+    fn is_empty(&self) -> bool {
+        self.height.is_none() && self.haematocrit_percent.is_none()
+    }
+}
+
+/// A measured landmark height: `"24 cm"`, or with its uncertainty
+/// `{"height": "24 cm", "uncertainty": "2 cm"}`.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct HeightSpec {
+    /// Height above the heart reference point, positive up.
+    pub height: LengthEntry,
+    /// How far the measurement may be off; 1 cm when left out.
+    pub uncertainty: Option<LengthEntry>,
+}
+
+#[derive(Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct HeightDetail {
+    height: LengthEntry,
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    uncertainty: Option<LengthEntry>,
+}
+
+impl Serialize for HeightSpec {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        match self.uncertainty {
+            None => self.height.serialize(serializer),
+            Some(u) => HeightDetail {
+                height: self.height,
+                uncertainty: Some(u),
+            }
+            .serialize(serializer),
+        }
+    }
+}
+
+impl<'de> Deserialize<'de> for HeightSpec {
+    fn deserialize<D: Deserializer<'de>>(deserializer: D) -> Result<Self, D::Error> {
+        use serde::de::Error as _;
+        match serde_json::Value::deserialize(deserializer)? {
+            serde_json::Value::String(text) => text
+                .parse()
+                .map(|height| HeightSpec {
+                    height,
+                    uncertainty: None,
+                })
+                .map_err(D::Error::custom),
+            value @ serde_json::Value::Object(_) => serde_json::from_value::<HeightDetail>(value)
+                .map(|d| HeightSpec {
+                    height: d.height,
+                    uncertainty: d.uncertainty,
+                })
+                .map_err(D::Error::custom),
+            _ => Err(D::Error::custom(
+                "a height is \"24 cm\" or {\"height\": \"24 cm\", \"uncertainty\": \"2 cm\"}",
+            )),
+        }
+    }
+}
+
+/// Density overrides.
+#[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct DensitySpec {
+    /// Whole blood (overrides the haematocrit estimate too).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub blood: Option<DensityEntry>,
+    /// CSF.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub csf: Option<DensityEntry>,
+    /// Saline.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub saline: Option<DensityEntry>,
+}
+
+impl DensitySpec {
+    fn is_empty(&self) -> bool {
+        self.blood.is_none() && self.csf.is_none() && self.saline.is_none()
+    }
+}
+
+/// An arterial pressure source: a line or a cuff.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct ArterialSpec {
+    /// A short name of our choosing ("radial line", "left arm cuff"); never a
+    /// patient's name. At most 40 characters.
+    pub id: String,
+    /// How it is measured.
+    pub method: Method,
+    /// The level the reading refers to: the cuff's landmark, or where the
+    /// transducer is now.
+    pub level: Level,
+    /// Systolic pressure.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub systolic: Option<PressureEntry>,
+    /// Diastolic pressure.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub diastolic: Option<PressureEntry>,
+    /// Mean pressure as shown by the device.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub mean: Option<PressureEntry>,
+    /// Accuracy (half-width) instead of the method's default.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub accuracy: Option<PressureEntry>,
+}
+
+/// A pressure reading other than arterial.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct ReadingSpec {
+    /// The value as read.
+    pub value: PressureEntry,
+    /// How it is measured.
+    pub method: Method,
+    /// The level it refers to (for IOP and compartment pressure: where it
+    /// was taken).
+    pub level: Level,
+    /// Accuracy (half-width) instead of the method's default.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub accuracy: Option<PressureEntry>,
+}
+
+/// An assumed value and the level it is assumed at.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct AssumedSpec {
+    /// The value assumed.
+    pub value: PressureEntry,
+    /// The level it is assumed at; the quantity's usual reference when left
+    /// out (the tragus for ICP, the heart for CVP).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub level: Option<Level>,
+}
+
+/// The patient's baseline arterial pressure, and where it was taken.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct BaselineSpec {
+    /// How it was measured.
+    pub method: Method,
+    /// The level it refers to.
+    pub level: Level,
+    /// The position the patient was in.
+    pub position: PositionSpec,
+    /// Systolic pressure.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub systolic: Option<PressureEntry>,
+    /// Diastolic pressure.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub diastolic: Option<PressureEntry>,
+    /// Mean pressure.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub mean: Option<PressureEntry>,
+}
+
+impl Case {
+    /// An empty case of the current version.
+    pub fn new() -> Self {
+        Case {
+            format: FORMAT.to_owned(),
+            version: VERSION,
+            patient: PatientSpec::default(),
+            position: None,
+            segments: BTreeMap::new(),
+            heights: BTreeMap::new(),
+            densities: DensitySpec::default(),
+            mean_rule: None,
+            arterial: Vec::new(),
+            primary_arterial: None,
+            readings: BTreeMap::new(),
+            assume: BTreeMap::new(),
+            organ_levels: BTreeMap::new(),
+            targets: None,
+            baseline: None,
+        }
+    }
+
+    /// Reads a case from JSON text.
+    ///
+    /// # Errors
+    /// Text that is not JSON (with line and column), a document of another
+    /// format or a newer version, or a shape problem named by its path
+    /// (`arterial[0].systolic: '80' has no unit ...`).
+    ///
+    /// # Example
+    /// ```
+    /// use plumbline_core::case::Case;
+    /// let ok = Case::from_json(r#"{"format": "plumbline-case", "version": 1}"#);
+    /// assert!(ok.is_ok());
+    /// let bad = Case::from_json(r#"{"format": "plumbline-case", "version": 1, "arterial": 3}"#);
+    /// assert!(bad.unwrap_err().to_string().starts_with("arterial"));
+    /// ```
+    pub fn from_json(text: &str) -> Result<Case, Errors> {
+        if text.len() > MAX_BYTES {
+            return Err(Error::new(
+                "",
+                ErrorKind::Shape {
+                    message: format!(
+                        "the document is {} bytes; a case is at most {MAX_BYTES}",
+                        text.len()
+                    ),
+                },
+            )
+            .into());
+        }
+        let value: serde_json::Value = serde_json::from_str(text).map_err(|e| {
+            Error::new(
+                "",
+                ErrorKind::Syntax {
+                    line: e.line(),
+                    column: e.column(),
+                    message: e.to_string(),
+                },
+            )
+        })?;
+        Case::from_value(value)
+    }
+
+    /// Reads a case from a JSON value (as the JavaScript face receives it).
+    ///
+    /// # Errors
+    /// As [`Case::from_json`], without the syntax step.
+    pub fn from_value(value: serde_json::Value) -> Result<Case, Errors> {
+        check_header(&value)?;
+        serde_path_to_error::deserialize(value).map_err(|e| {
+            let path = e.path().to_string();
+            let field = if path == "." { String::new() } else { path };
+            Error::new(
+                field,
+                ErrorKind::Shape {
+                    message: e.into_inner().to_string(),
+                },
+            )
+            .into()
+        })
+    }
+
+    /// The case as pretty JSON.
+    pub fn to_json(&self) -> String {
+        serde_json::to_string_pretty(self).unwrap_or_default()
+    }
+}
+
+impl Default for Case {
+    fn default() -> Self {
+        Case::new()
+    }
+}
+
+fn check_header(value: &serde_json::Value) -> Result<(), Error> {
+    let shape = |field: &str, message: &str| {
+        Error::new(
+            field,
+            ErrorKind::Shape {
+                message: message.to_owned(),
+            },
+        )
+    };
+    let object = value
+        .as_object()
+        .ok_or_else(|| shape("", "a case is a JSON object { ... }"))?;
+    match object.get("format").and_then(|f| f.as_str()) {
+        Some(FORMAT) => {}
+        Some(other) => {
+            return Err(shape(
+                "format",
+                &format!("'{other}' is not a Plumbline case; expected \"{FORMAT}\""),
+            ))
+        }
+        None => {
+            return Err(shape(
+                "format",
+                &format!("missing; a case starts with \"format\": \"{FORMAT}\""),
+            ))
+        }
+    }
+    match object.get("version").and_then(|v| v.as_u64()) {
+        Some(v) if v >= 1 && v <= u64::from(VERSION) => Ok(()),
+        Some(v) => Err(Error::new(
+            "version",
+            ErrorKind::UnsupportedVersion {
+                found: u32::try_from(v).unwrap_or(u32::MAX),
+                supported: VERSION,
+            },
+        )),
+        None => Err(shape(
+            "version",
+            &format!("missing or not a whole number; this build writes version {VERSION}"),
+        )),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    #![allow(clippy::unwrap_used)]
+    use super::*;
+
+    fn field_of(text: &str) -> String {
+        let errors = Case::from_json(text).unwrap_err();
+        let field = errors.iter().next().unwrap().field.clone();
+        field
+    }
+
+    #[test]
+    fn syntax_errors_carry_line_and_column() {
+        let errors = Case::from_json("{\n  \"format\": ").unwrap_err();
+        let first = errors.iter().next().unwrap();
+        assert!(matches!(first.kind, ErrorKind::Syntax { line: 2, .. }));
+    }
+
+    #[test]
+    fn header_is_checked_first() {
+        assert_eq!(field_of(r#"{"version": 1}"#), "format");
+        assert_eq!(field_of(r#"{"format": "other", "version": 1}"#), "format");
+        assert_eq!(field_of(r#"{"format": "plumbline-case"}"#), "version");
+        let errors = Case::from_json(r#"{"format": "plumbline-case", "version": 9}"#).unwrap_err();
+        assert!(matches!(
+            errors.iter().next().unwrap().kind,
+            ErrorKind::UnsupportedVersion { found: 9, .. }
+        ));
+        assert_eq!(field_of("[]"), "");
+    }
+
+    #[test]
+    fn shape_errors_name_the_path() {
+        let text = r#"{"format": "plumbline-case", "version": 1,
+            "arterial": [{"id": "a", "method": "cuff", "level": "heart", "systolic": "120"}]}"#;
+        assert_eq!(field_of(text), "arterial[0].systolic");
+        let text = r#"{"format": "plumbline-case", "version": 1,
+            "readings": {"icp": {"value": "12 mmHg", "method": "probe", "levle": "tragus"}}}"#;
+        assert_eq!(field_of(text), "readings.icp.levle");
+        let text = r#"{"format": "plumbline-case", "version": 1, "heights": {"elbow": "3 cm"}}"#;
+        assert_eq!(field_of(text), "heights.elbow");
+    }
+
+    #[test]
+    fn heights_take_a_plain_or_detailed_form() {
+        let text = r#"{"format": "plumbline-case", "version": 1,
+            "heights": {"tragus": "28 cm", "upper_arm_left": {"height": "-20 cm", "uncertainty": "3 cm"}}}"#;
+        let case = Case::from_json(text).unwrap();
+        assert_eq!(case.heights.len(), 2);
+        let back = Case::from_json(&case.to_json()).unwrap();
+        assert_eq!(back, case);
+    }
+
+    #[test]
+    fn oversized_documents_are_refused() {
+        let text = " ".repeat(MAX_BYTES + 1);
+        assert!(Case::from_json(&text).is_err());
+    }
+}

@@ -1,0 +1,694 @@
+//! The formulas: each organ metric from a scene, with the steps that
+//! produced it written out in words and numbers.
+//!
+//! Every pressure is first carried to the organ's height through its own
+//! fluid (the hydrostatic equation), then combined. Outflow follows the
+//! waterfall rule: the higher of the venous pressure and the pressure around
+//! the veins wins, and the result says which. A metric that cannot be
+//! computed says what is missing instead.
+
+use std::collections::BTreeMap;
+
+use crate::fluid::Fluid;
+use crate::landmark::Landmark;
+use crate::organ::{Metric, Organ};
+use crate::reading::{Component, MeanBasis, Quantity};
+use crate::scene::{Place, Scene};
+use crate::units::{column, to_cm, to_kg_per_m3, to_mmhg, Length, Pressure};
+
+/// One step of a derivation: what was done, and the value it gave.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Step {
+    /// The step in words, with its numbers.
+    pub what: String,
+    /// The value it produced.
+    pub value: Pressure,
+}
+
+/// The input a site reading would have to change to move a metric, and how
+/// much the metric moves per mmHg of it.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Driver {
+    /// An arterial source's component.
+    Arterial {
+        /// Index of the source.
+        source: usize,
+        /// Which component.
+        component: Component,
+        /// Metric change per unit change of the reading.
+        slope: f64,
+    },
+    /// A non-arterial reading (the aortic relaxation pressure in CPR).
+    Reading {
+        /// Which reading.
+        quantity: Quantity,
+        /// Metric change per unit change of the reading.
+        slope: f64,
+    },
+}
+
+impl Driver {
+    /// Metric change per unit change of the driving reading.
+    pub fn slope(self) -> f64 {
+        match self {
+            Driver::Arterial { slope, .. } | Driver::Reading { slope, .. } => slope,
+        }
+    }
+}
+
+/// Which outflow won the waterfall.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Outflow {
+    /// The effective back pressure.
+    pub value: Pressure,
+    /// The pressure that set it.
+    pub winner: Quantity,
+    /// Every candidate at the organ's height.
+    pub candidates: Vec<(Quantity, Pressure)>,
+}
+
+/// A computed metric.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Value {
+    /// The value.
+    pub value: Pressure,
+    /// How it was computed.
+    pub steps: Vec<Step>,
+    /// The reading that drives it, for required-reading and sweep answers.
+    pub driver: Option<Driver>,
+    /// The waterfall's choice, for perfusion metrics.
+    pub outflow: Option<Outflow>,
+    /// Assumed values it used.
+    pub assumed: Vec<Quantity>,
+}
+
+/// Why a metric could not be computed: the things to add, in words.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct Missing(pub Vec<String>);
+
+impl Missing {
+    fn one(what: impl Into<String>) -> Self {
+        Missing(vec![what.into()])
+    }
+}
+
+/// A scene with its landmark heights worked out, ready for formulas.
+pub struct Ctx<'a> {
+    scene: &'a Scene,
+    heights: BTreeMap<Landmark, Length>,
+}
+
+fn mm(p: Pressure) -> String {
+    format!("{:.1} mmHg", to_mmhg(p))
+}
+
+impl<'a> Ctx<'a> {
+    /// Works out the heights of `scene` (with any shift in force).
+    pub fn new(scene: &'a Scene) -> Self {
+        Ctx {
+            scene,
+            heights: scene.heights(),
+        }
+    }
+
+    /// The scene.
+    pub fn scene(&self) -> &Scene {
+        self.scene
+    }
+
+    /// A landmark's height, if known.
+    pub fn height(&self, landmark: Landmark) -> Option<Length> {
+        self.heights.get(&landmark).copied()
+    }
+
+    fn landmark_height(&self, landmark: Landmark) -> Result<Length, Missing> {
+        self.height(landmark).ok_or_else(|| {
+            Missing::one(format!(
+                "the height of the {} (measure it or give the position and patient height)",
+                landmark.label()
+            ))
+        })
+    }
+
+    fn place_height(&self, place: Place) -> Result<Length, Missing> {
+        match place {
+            Place::At(landmark) => self.landmark_height(landmark),
+            Place::Height { height, .. } => Ok(height),
+        }
+    }
+
+    /// `value`, read at `from`, carried through `fluid` to `to`.
+    fn carry(
+        &self,
+        steps: &mut Vec<Step>,
+        name: &str,
+        value: Pressure,
+        fluid: Fluid,
+        from: Length,
+        to: (Landmark, Length),
+    ) -> Pressure {
+        let dh = to.1 - from;
+        let shift = column(self.scene.density(fluid), dh);
+        let result = value - shift;
+        let what = if to_cm(dh).abs() < 1e-9 {
+            format!("{name} at the {}: same height, no correction", to.0.label())
+        } else {
+            format!(
+                "{name} at the {}: {} − {} column of {:.1} cm at {:.0} kg/m³ ({}) = {}",
+                to.0.label(),
+                mm(value),
+                fluid.label(),
+                to_cm(dh),
+                to_kg_per_m3(self.scene.density(fluid)),
+                mm(shift),
+                mm(result)
+            )
+        };
+        steps.push(Step {
+            what,
+            value: result,
+        });
+        result
+    }
+
+    fn source(&self, requested: Option<usize>) -> Result<usize, Missing> {
+        requested
+            .or(self.scene.primary)
+            .filter(|i| *i < self.scene.arterial.len())
+            .ok_or_else(|| Missing::one("an arterial pressure (a line or a cuff)"))
+    }
+
+    /// An arterial component of source `i` at the organ's level.
+    fn arterial_at(
+        &self,
+        steps: &mut Vec<Step>,
+        i: usize,
+        component: Component,
+        level: (Landmark, Length),
+    ) -> Result<Pressure, Missing> {
+        let a = self
+            .scene
+            .arterial
+            .get(i)
+            .ok_or_else(|| Missing::one("an arterial pressure (a line or a cuff)"))?;
+        let value = a.component(component).ok_or_else(|| {
+            Missing::one(format!("the {} pressure of {}", component.label(), a.id))
+        })?;
+        let from = self.place_height(a.place)?;
+        let basis = match (component, a.mean) {
+            (Component::Mean, Some((_, b))) => format!(", {}", b.describe()),
+            _ => String::new(),
+        };
+        steps.push(Step {
+            what: format!(
+                "{} at {} ({}, {}, {:+.1} cm){basis}: {}",
+                component.label(),
+                a.id,
+                a.method.label(),
+                a.place.describe(),
+                to_cm(from),
+                mm(value)
+            ),
+            value,
+        });
+        Ok(self.carry(steps, component.label(), value, Fluid::Blood, from, level))
+    }
+
+    /// A reading carried to the organ's level; `Ok(None)` when absent.
+    fn reading_at(
+        &self,
+        steps: &mut Vec<Step>,
+        assumed: &mut Vec<Quantity>,
+        quantity: Quantity,
+        level: (Landmark, Length),
+    ) -> Result<Option<Pressure>, Missing> {
+        let Some(r) = self.scene.readings.get(&quantity) else {
+            return Ok(None);
+        };
+        let how = match r.method {
+            Some(m) => m.label().to_owned(),
+            None => {
+                assumed.push(quantity);
+                "ASSUMED, not measured".to_owned()
+            }
+        };
+        let from = self.place_height(r.place)?;
+        steps.push(Step {
+            what: format!(
+                "{} ({how}, {}, {:+.1} cm): {}",
+                quantity.label(),
+                r.place.describe(),
+                to_cm(from),
+                mm(r.value)
+            ),
+            value: r.value,
+        });
+        match quantity.fluid() {
+            Some(fluid) => Ok(Some(self.carry(
+                steps,
+                quantity.label(),
+                r.value,
+                fluid,
+                from,
+                level,
+            ))),
+            None if r.place == Place::At(level.0) => Ok(Some(r.value)),
+            None => Err(Missing::one(format!(
+                "{} taken at the {}",
+                quantity.label(),
+                level.0.label()
+            ))),
+        }
+    }
+
+    fn required(
+        &self,
+        steps: &mut Vec<Step>,
+        assumed: &mut Vec<Quantity>,
+        quantity: Quantity,
+        level: (Landmark, Length),
+    ) -> Result<Pressure, Missing> {
+        self.reading_at(steps, assumed, quantity, level)?
+            .ok_or_else(|| Missing::one(missing_reading(quantity)))
+    }
+}
+
+fn missing_reading(quantity: Quantity) -> String {
+    let assumable = matches!(
+        quantity,
+        Quantity::Icp | Quantity::Csf | Quantity::Cvp | Quantity::Iap | Quantity::Lvedp
+    );
+    if assumable {
+        format!(
+            "{} (readings.{quantity}, or an assumed value in assume.{quantity})",
+            quantity.label()
+        )
+    } else {
+        format!("{} (readings.{quantity})", quantity.label())
+    }
+}
+
+/// The landmark an organ is checked at in this scene.
+///
+/// # Errors
+/// The eye and limb are checked where IOP and compartment pressure were
+/// taken; without those readings there is no level.
+pub fn organ_level(ctx: &Ctx<'_>, organ: Organ) -> Result<Landmark, Missing> {
+    let scene = ctx.scene;
+    let local = |q: Quantity| match scene.readings.get(&q).map(|r| r.place) {
+        Some(Place::At(landmark)) => Ok(landmark),
+        _ => Err(Missing::one(missing_reading(q))),
+    };
+    Ok(match organ {
+        Organ::Brain => Landmark::Tragus,
+        Organ::Abdomen => Landmark::IliacCrest,
+        Organ::Heart | Organ::HeartCpr | Organ::WholeBody => Landmark::Heart,
+        Organ::Cord => scene
+            .organ_levels
+            .get(&organ)
+            .copied()
+            .unwrap_or(Landmark::CordThoracic),
+        Organ::Kidney => match scene.organ_levels.get(&organ) {
+            Some(l) => *l,
+            // The higher kidney is the worse perfused one: check that one.
+            None => match (
+                ctx.height(Landmark::KidneyLeft),
+                ctx.height(Landmark::KidneyRight),
+            ) {
+                (Some(l), Some(r)) if r > l => Landmark::KidneyRight,
+                (None, Some(_)) => Landmark::KidneyRight,
+                _ => Landmark::KidneyLeft,
+            },
+        },
+        Organ::Eye => local(Quantity::Iop)?,
+        Organ::Limb => local(Quantity::Compartment)?,
+    })
+}
+
+/// Computes one metric of one organ, with inflow from arterial source
+/// `source` (the primary source when `None`).
+///
+/// # Errors
+/// What is missing, in words: a reading, a height, a component.
+pub fn metric(
+    ctx: &Ctx<'_>,
+    organ: Organ,
+    metric: Metric,
+    source: Option<usize>,
+) -> Result<Value, Missing> {
+    let landmark = organ_level(ctx, organ)?;
+    let level = (landmark, ctx.landmark_height(landmark)?);
+    let mut steps = Vec::new();
+    let mut assumed = Vec::new();
+    let label = organ.metric_label(metric);
+    let finish = |value: Pressure,
+                  steps: Vec<Step>,
+                  driver: Option<Driver>,
+                  outflow: Option<Outflow>,
+                  assumed: Vec<Quantity>| Value {
+        value,
+        steps,
+        driver,
+        outflow,
+        assumed,
+    };
+
+    match (organ, metric) {
+        (_, Metric::Inflow) => {
+            let i = ctx.source(source)?;
+            let value = ctx.arterial_at(&mut steps, i, Component::Mean, level)?;
+            Ok(finish(
+                value,
+                steps,
+                Some(mean_driver(i, 1.0)),
+                None,
+                assumed,
+            ))
+        }
+        (Organ::Brain | Organ::Cord | Organ::Abdomen, Metric::Surrounding) => {
+            let q = surrounding_of(organ);
+            let value = ctx.required(&mut steps, &mut assumed, q, level)?;
+            Ok(finish(value, steps, None, None, assumed))
+        }
+        (Organ::Eye, Metric::PopulationMean | Metric::PopulationDiastolic) => {
+            population(ctx, metric, source, level, steps, assumed)
+        }
+        (Organ::HeartCpr, Metric::Perfusion) => {
+            let mut missing = Vec::new();
+            let aortic = ctx.required(
+                &mut steps,
+                &mut assumed,
+                Quantity::CprAorticRelaxation,
+                level,
+            );
+            let atrial = ctx.required(
+                &mut steps,
+                &mut assumed,
+                Quantity::CprRightAtrialRelaxation,
+                level,
+            );
+            let (aortic, atrial) = match (aortic, atrial) {
+                (Ok(a), Ok(r)) => (a, r),
+                (a, r) => {
+                    for m in [a.err(), r.err()].into_iter().flatten() {
+                        missing.extend(m.0);
+                    }
+                    return Err(Missing(missing));
+                }
+            };
+            let value = aortic - atrial;
+            steps.push(Step {
+                what: format!("{label} = {} − {} = {}", mm(aortic), mm(atrial), mm(value)),
+                value,
+            });
+            let driver = Driver::Reading {
+                quantity: Quantity::CprAorticRelaxation,
+                slope: 1.0,
+            };
+            Ok(finish(value, steps, Some(driver), None, assumed))
+        }
+        (_, Metric::Perfusion | Metric::FiltrationGradient) => {
+            let (component, outflows, factor) = difference_terms(organ, metric);
+            let i = ctx.source(source);
+            let inflow = i
+                .clone()
+                .and_then(|i| ctx.arterial_at(&mut steps, i, component, level));
+            let outflow = waterfall(ctx, &mut steps, &mut assumed, outflows, level);
+            let (i, inflow, outflow) = match (i, inflow, outflow) {
+                (Ok(i), Ok(inflow), Ok(outflow)) => (i, inflow, outflow),
+                (_, inflow, outflow) => {
+                    let mut missing = Vec::new();
+                    for m in [inflow.err(), outflow.err()].into_iter().flatten() {
+                        missing.extend(m.0);
+                    }
+                    return Err(Missing(missing));
+                }
+            };
+            let value = inflow - outflow.value * factor;
+            let times = if factor == 1.0 {
+                String::new()
+            } else {
+                format!("{factor} × ")
+            };
+            steps.push(Step {
+                what: format!(
+                    "{label} = {} − {times}{} = {}",
+                    mm(inflow),
+                    mm(outflow.value),
+                    mm(value)
+                ),
+                value,
+            });
+            let driver = Driver::Arterial {
+                source: i,
+                component,
+                slope: 1.0,
+            };
+            Ok(finish(value, steps, Some(driver), Some(outflow), assumed))
+        }
+        (_, Metric::Surrounding | Metric::PopulationMean | Metric::PopulationDiastolic) => {
+            Err(Missing::one(format!("{} has no {metric}", organ.label())))
+        }
+    }
+}
+
+fn mean_driver(source: usize, slope: f64) -> Driver {
+    Driver::Arterial {
+        source,
+        component: Component::Mean,
+        slope,
+    }
+}
+
+fn surrounding_of(organ: Organ) -> Quantity {
+    match organ {
+        Organ::Cord => Quantity::Csf,
+        Organ::Abdomen => Quantity::Iap,
+        _ => Quantity::Icp,
+    }
+}
+
+/// An outflow candidate and whether the metric needs it.
+type Candidate = (Quantity, bool);
+
+/// The arterial component, outflow candidates and outflow factor of a
+/// pressure-difference metric.
+fn difference_terms(organ: Organ, metric: Metric) -> (Component, &'static [Candidate], f64) {
+    use Quantity::*;
+    match (organ, metric) {
+        (Organ::Abdomen, Metric::FiltrationGradient) => (Component::Mean, &[(Iap, true)], 2.0),
+        (Organ::Brain, _) => (Component::Mean, &[(Icp, true), (Cvp, false)], 1.0),
+        (Organ::Cord, _) => (Component::Mean, &[(Csf, true), (Cvp, false)], 1.0),
+        (Organ::Abdomen, _) => (Component::Mean, &[(Iap, true)], 1.0),
+        (Organ::Kidney, _) => (Component::Mean, &[(Cvp, false), (Iap, false)], 1.0),
+        (Organ::Heart, _) => (Component::Diastolic, &[(Lvedp, true)], 1.0),
+        (Organ::Eye, _) => (Component::Mean, &[(Iop, true)], 1.0),
+        (Organ::Limb, _) => (Component::Diastolic, &[(Compartment, true)], 1.0),
+        (Organ::WholeBody | Organ::HeartCpr, _) => (Component::Mean, &[(Cvp, true)], 1.0),
+    }
+}
+
+/// The effective back pressure: the highest candidate at the organ's height.
+/// Required candidates must be present; of optional-only lists, at least one.
+fn waterfall(
+    ctx: &Ctx<'_>,
+    steps: &mut Vec<Step>,
+    assumed: &mut Vec<Quantity>,
+    candidates: &[Candidate],
+    level: (Landmark, Length),
+) -> Result<Outflow, Missing> {
+    let mut found = Vec::new();
+    let mut missing = Vec::new();
+    for (q, required) in candidates {
+        match ctx.reading_at(steps, assumed, *q, level) {
+            Ok(Some(p)) => found.push((*q, p)),
+            Ok(None) if *required => missing.push(missing_reading(*q)),
+            Ok(None) => {}
+            Err(m) => missing.extend(m.0),
+        }
+    }
+    if found.is_empty() && missing.is_empty() {
+        missing.push(format!(
+            "at least one of {}",
+            candidates
+                .iter()
+                .map(|(q, _)| missing_reading(*q))
+                .collect::<Vec<_>>()
+                .join(" or ")
+        ));
+    }
+    if !missing.is_empty() {
+        return Err(Missing(missing));
+    }
+    let Some(&(winner, value)) = found
+        .iter()
+        .max_by(|a, b| to_mmhg(a.1).total_cmp(&to_mmhg(b.1)))
+    else {
+        return Err(Missing(missing));
+    };
+    if found.len() > 1 {
+        let listed = found
+            .iter()
+            .map(|(q, p)| format!("{} {}", q.label(), mm(*p)))
+            .collect::<Vec<_>>()
+            .join(", ");
+        let collapse = if found
+            .iter()
+            .any(|(q, p)| *q == Quantity::Cvp && to_mmhg(*p) < 0.0)
+        {
+            " (venous pressure below zero here: the veins collapse)"
+        } else {
+            ""
+        };
+        steps.push(Step {
+            what: format!(
+                "outflow: the higher of {listed}{collapse} → {} {}",
+                winner.label(),
+                mm(value)
+            ),
+            value,
+        });
+    }
+    Ok(Outflow {
+        value,
+        winner,
+        candidates: found,
+    })
+}
+
+/// The population formulas, applied to an upper-arm reading as measured in
+/// a seated patient. No hydrostatic correction is added: the formula's 2/3
+/// already stands for the eye's height above the arm, so correcting too
+/// would count the column twice.
+fn population(
+    ctx: &Ctx<'_>,
+    metric: Metric,
+    source: Option<usize>,
+    level: (Landmark, Length),
+    mut steps: Vec<Step>,
+    mut assumed: Vec<Quantity>,
+) -> Result<Value, Missing> {
+    let scene = ctx.scene;
+    let mut missing = Vec::new();
+    if !scene
+        .position
+        .as_ref()
+        .is_some_and(|p| p.posture.is_seated())
+    {
+        missing.push(
+            "a seated position (beach chair or sitting): the population formula was derived in \
+             seated patients"
+                .to_owned(),
+        );
+    }
+    let on_arm = |i: &usize| {
+        scene
+            .arterial
+            .get(*i)
+            .is_some_and(|a| matches!(a.place, Place::At(l) if l.is_upper_arm()))
+    };
+    let arm = source
+        .filter(on_arm)
+        .or_else(|| (0..scene.arterial.len()).find(on_arm));
+    if arm.is_none() {
+        missing.push("an arterial reading taken on an upper arm".to_owned());
+    }
+    let iop = ctx.required(&mut steps, &mut assumed, Quantity::Iop, level);
+    let (Some(i), Ok(iop), true) = (arm, iop.clone(), missing.is_empty()) else {
+        if let Err(m) = iop {
+            missing.extend(m.0);
+        }
+        return Err(Missing(missing));
+    };
+    let (component, factor) = match metric {
+        Metric::PopulationMean => (Component::Mean, 2.0 / 3.0),
+        _ => (Component::Diastolic, 1.0),
+    };
+    let a = scene
+        .arterial
+        .get(i)
+        .ok_or_else(|| Missing::one("an arterial reading taken on an upper arm"))?;
+    let value_at_arm = a
+        .component(component)
+        .ok_or_else(|| Missing::one(format!("the {} pressure of {}", component.label(), a.id)))?;
+    let basis = match (component, a.mean) {
+        (Component::Mean, Some((_, MeanBasis::Estimated(rule)))) => {
+            format!(" (estimated: {})", rule.label())
+        }
+        _ => String::new(),
+    };
+    let value = value_at_arm * factor - iop;
+    let times = if component == Component::Mean {
+        "2/3 × "
+    } else {
+        ""
+    };
+    steps.push(Step {
+        what: format!(
+            "{} at {} as measured{basis}, no height correction (the formula already allows for it): \
+             {times}{} − IOP {} = {}",
+            component.label(),
+            a.id,
+            mm(value_at_arm),
+            mm(iop),
+            mm(value)
+        ),
+        value,
+    });
+    let driver = Driver::Arterial {
+        source: i,
+        component,
+        slope: factor,
+    };
+    Ok(Value {
+        value,
+        steps,
+        driver: Some(driver),
+        outflow: None,
+        assumed,
+    })
+}
+
+/// The baseline's mean arterial pressure carried to a landmark's height in
+/// the baseline position.
+///
+/// # Errors
+/// No baseline, or a height that cannot be worked out.
+pub fn baseline_inflow(ctx: &Ctx<'_>, landmark: Landmark) -> Result<Step, Missing> {
+    let scene = ctx.scene;
+    let baseline = scene
+        .baseline
+        .as_ref()
+        .ok_or_else(|| Missing::one("a baseline (baseline) for targets relative to it"))?;
+    let heights = scene
+        .baseline_heights()
+        .ok_or_else(|| Missing::one("the patient's height, to place the baseline's position"))?;
+    let height = |l: Landmark| {
+        heights
+            .get(&l)
+            .copied()
+            .ok_or_else(|| Missing::one(format!("the height of the {}", l.label())))
+    };
+    let from = match baseline.place {
+        Place::At(l) => height(l)?,
+        Place::Height { height, .. } => height,
+    };
+    let to = height(landmark)?;
+    let (mean, basis) = baseline.mean;
+    let shift = column(scene.density(Fluid::Blood), to - from);
+    let value = mean - shift;
+    Ok(Step {
+        what: format!(
+            "baseline mean {} ({}, {}, {}) carried to the {} in that position: {} − {} = {}",
+            mm(mean),
+            basis.describe(),
+            baseline.place.describe(),
+            baseline.position.posture.label(),
+            landmark.label(),
+            mm(mean),
+            mm(shift),
+            mm(value)
+        ),
+        value,
+    })
+}

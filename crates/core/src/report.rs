@@ -1,0 +1,325 @@
+//! The result of a check, as plain data for screens, tables and JSON.
+//!
+//! Pressures are numbers of mmHg in fields named `*_mmhg`, lengths numbers
+//! of cm in fields named `*_cm`; words are ready to show. A front end shows
+//! these; it never computes a pressure of its own.
+
+use serde::Serialize;
+
+use crate::error::Warning;
+use crate::geometry::Figure;
+use crate::landmark::Landmark;
+use crate::organ::{Metric, Organ};
+use crate::reading::{Component, Method, Quantity};
+pub use crate::target::IahGrade;
+use crate::target::Status;
+
+/// The caution every screen, table and summary carries.
+pub const CAUTION: &str = "Decision support for trained clinicians only. Every value depends on \
+    correct heights, levels and zeroing, and targets are patient-specific: local protocols and \
+    licensed clinical judgement come first.";
+
+/// The value of a result's `format` field.
+pub const RESULT_FORMAT: &str = "plumbline-result";
+
+/// Everything one check found.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Report {
+    /// Always `"plumbline-result"`.
+    pub format: &'static str,
+    /// The result format version (the case format's version).
+    pub version: u32,
+    /// The position in words, when one was given.
+    pub position: Option<String>,
+    /// Every landmark with a known height.
+    pub heights: Vec<HeightRow>,
+    /// The arterial sources as read.
+    pub arterial: Vec<SourceRow>,
+    /// The organs that could be checked.
+    pub organs: Vec<OrganReport>,
+    /// The organs that could not, and what each needs.
+    pub not_checked: Vec<NotChecked>,
+    /// Agreement between arterial sources once at one level.
+    pub cross_checks: Vec<CrossCheck>,
+    /// Required site readings across backrest angles.
+    pub sweeps: Vec<Sweep>,
+    /// The body in its position, for drawing.
+    pub figure: Option<Figure>,
+    /// Things worth a second look.
+    pub warnings: Vec<Warning>,
+    /// The caution.
+    pub caution: &'static str,
+}
+
+/// Where a height came from.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Provenance {
+    /// The heart reference itself: 0 by definition.
+    Datum,
+    /// Measured on the patient.
+    Measured,
+    /// Estimated from the position and body proportions.
+    Estimated,
+}
+
+impl Provenance {
+    /// The provenance in words.
+    pub fn label(self) -> &'static str {
+        match self {
+            Provenance::Datum => "reference",
+            Provenance::Measured => "measured",
+            Provenance::Estimated => "estimated",
+        }
+    }
+}
+
+/// One landmark's height.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct HeightRow {
+    /// Which landmark.
+    pub landmark: Landmark,
+    /// It in words.
+    pub label: &'static str,
+    /// Height above the heart reference, cm.
+    pub above_heart_cm: f64,
+    /// Half-width of its plausible range, cm.
+    pub uncertainty_cm: f64,
+    /// Where it came from.
+    pub provenance: Provenance,
+    /// What moves it most, for estimated heights.
+    pub largest_contributor: Option<String>,
+}
+
+/// One arterial source as read.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct SourceRow {
+    /// Its name.
+    pub id: String,
+    /// How it is measured.
+    pub method: Method,
+    /// Its level in words.
+    pub level: String,
+    /// Its level's height above the heart, cm.
+    pub level_height_cm: Option<f64>,
+    /// Systolic, mmHg.
+    pub systolic_mmhg: Option<f64>,
+    /// Diastolic, mmHg.
+    pub diastolic_mmhg: Option<f64>,
+    /// Mean, mmHg.
+    pub mean_mmhg: Option<f64>,
+    /// How the mean was obtained.
+    pub mean_basis: Option<String>,
+    /// Mean brought to the heart reference, mmHg.
+    pub mean_at_heart_mmhg: Option<f64>,
+    /// Accuracy half-width used, mmHg.
+    pub accuracy_mmhg: f64,
+    /// Where that accuracy comes from.
+    pub accuracy_source: String,
+    /// Whether this source drives the organ results.
+    pub primary: bool,
+}
+
+/// One organ's results.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct OrganReport {
+    /// Which organ.
+    pub organ: Organ,
+    /// It in words.
+    pub label: &'static str,
+    /// The landmark it is checked at.
+    pub level: Landmark,
+    /// That landmark in words.
+    pub level_label: &'static str,
+    /// That landmark's height above the heart, cm.
+    pub level_height_cm: f64,
+    /// The metrics computed.
+    pub metrics: Vec<MetricReport>,
+    /// The metrics that could not be computed, and why.
+    pub missing: Vec<MissingMetric>,
+}
+
+/// A metric that could not be computed.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct MissingMetric {
+    /// Which metric.
+    pub metric: Metric,
+    /// Its name.
+    pub label: &'static str,
+    /// What it needs.
+    pub needs: Vec<String>,
+}
+
+/// One computed metric with its range, derivation and targets.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct MetricReport {
+    /// Which metric.
+    pub metric: Metric,
+    /// Its name.
+    pub label: &'static str,
+    /// The value, mmHg.
+    pub value_mmhg: f64,
+    /// The low end of its plausible range, mmHg.
+    pub lower_mmhg: f64,
+    /// The high end, mmHg.
+    pub upper_mmhg: f64,
+    /// The input that moves it most.
+    pub largest_contributor: Option<String>,
+    /// Each input's effect, largest first.
+    pub contributions: Vec<Contribution>,
+    /// The arterial source it was computed from.
+    pub inflow_source: Option<String>,
+    /// The waterfall's choice.
+    pub outflow: Option<OutflowReport>,
+    /// Assumed values used: the result is only as good as the assumption.
+    pub assumed: Vec<Quantity>,
+    /// How it was computed.
+    pub steps: Vec<StepReport>,
+    /// The targets on it.
+    pub targets: Vec<TargetReport>,
+    /// The IAH grade, for IAP.
+    pub grade: Option<IahGrade>,
+}
+
+/// One input's effect on a metric when moved across its range.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Contribution {
+    /// The input in words.
+    pub input: String,
+    /// How far it can pull the metric down, mmHg (zero or negative).
+    pub down_mmhg: f64,
+    /// How far it can push it up, mmHg (zero or positive).
+    pub up_mmhg: f64,
+}
+
+/// The waterfall's choice.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct OutflowReport {
+    /// The effective back pressure, mmHg.
+    pub value_mmhg: f64,
+    /// The pressure that set it.
+    pub winner: Quantity,
+    /// Every candidate at the organ's height.
+    pub candidates: Vec<OutflowCandidate>,
+}
+
+/// A waterfall candidate.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct OutflowCandidate {
+    /// Which pressure.
+    pub quantity: Quantity,
+    /// Its value at the organ's height, mmHg.
+    pub value_mmhg: f64,
+}
+
+/// One step of a derivation.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct StepReport {
+    /// The step in words.
+    pub what: String,
+    /// Its value, mmHg.
+    pub value_mmhg: f64,
+}
+
+/// A metric against one target.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct TargetReport {
+    /// The target in words.
+    pub target: String,
+    /// Where it comes from.
+    pub source: String,
+    /// The threshold it resolves to, mmHg (relative targets resolve through
+    /// the baseline).
+    pub threshold_mmhg: Option<f64>,
+    /// How the threshold was found, for relative targets.
+    pub threshold_steps: Vec<StepReport>,
+    /// The status, when the target could be evaluated.
+    pub status: Option<Status>,
+    /// How far inside the bound, mmHg: positive meets, negative fails.
+    pub margin_mmhg: Option<f64>,
+    /// Whether the plausible range reaches across the threshold.
+    pub range_crosses: bool,
+    /// The verdict in words.
+    pub words: String,
+    /// The reading each site must show to meet this target now.
+    pub required: Vec<Required>,
+}
+
+/// A site reading that meets a target in the current position.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Required {
+    /// The site (an arterial source's id, or a reading's name).
+    pub site: String,
+    /// Which component of its reading.
+    pub component: Option<Component>,
+    /// Its reading now, mmHg.
+    pub current_mmhg: f64,
+    /// The reading that meets the target exactly, mmHg.
+    pub needed_mmhg: f64,
+    /// `true` when the reading must be at least the needed value.
+    pub at_least: bool,
+    /// The needed value in words, rounded the safe way, in the site's unit.
+    pub words: String,
+}
+
+/// Two arterial sources compared at the heart reference.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct CrossCheck {
+    /// The first source.
+    pub first: String,
+    /// The second source.
+    pub second: String,
+    /// The first's mean at heart level, mmHg.
+    pub first_at_heart_mmhg: f64,
+    /// The second's mean at heart level, mmHg.
+    pub second_at_heart_mmhg: f64,
+    /// First minus second, mmHg.
+    pub difference_mmhg: f64,
+    /// Their combined accuracy, mmHg.
+    pub tolerance_mmhg: f64,
+    /// Whether they agree within it.
+    pub agree: bool,
+    /// The verdict in words.
+    pub words: String,
+}
+
+/// The reading one site needs across backrest angles.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Sweep {
+    /// Which organ.
+    pub organ: Organ,
+    /// Which metric.
+    pub metric: Metric,
+    /// The target in words.
+    pub target: String,
+    /// The site whose reading is given.
+    pub site: String,
+    /// Which component of its reading.
+    pub component: Option<Component>,
+    /// `true` when the reading must be at least the needed value.
+    pub at_least: bool,
+    /// One point per angle.
+    pub points: Vec<SweepPoint>,
+    /// What is held fixed while the angle moves.
+    pub note: String,
+}
+
+/// One point of a sweep.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct SweepPoint {
+    /// Backrest angle, degrees.
+    pub backrest_deg: f64,
+    /// The site reading needed at that angle, mmHg.
+    pub needed_mmhg: f64,
+}
+
+/// An organ that could not be checked.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct NotChecked {
+    /// Which organ.
+    pub organ: Organ,
+    /// It in words.
+    pub label: &'static str,
+    /// What it needs.
+    pub needs: Vec<String>,
+}

@@ -1,0 +1,1072 @@
+//! The checked inputs of one check: every value in SI with its level,
+//! accuracy and provenance, ready for the formulas.
+//!
+//! [`Scene::from_case`] is the one gate between what was typed and what is
+//! computed: it converts units, checks ranges and consistency, and gathers
+//! every problem with its field. A scene can also be *shifted*: one
+//! uncertain input moved to the edge of its range, which is how every
+//! result's range is found.
+
+use std::collections::BTreeMap;
+
+use crate::case::{ArterialSpec, BaselineSpec, Case, HeightSpec, ReadingSpec};
+use crate::error::{Error, ErrorKind, Errors, Warning};
+use crate::fluid::{blood_from_haematocrit, Densities, DensityRange, Fluid};
+use crate::geometry::{self, Body, GeometryParam, Position, Shift, BODY_HEIGHT_RANGE_CM};
+use crate::landmark::Landmark;
+use crate::organ::Organ;
+use crate::reading::{Component, Level, MeanBasis, MeanRule, Method, Quantity};
+use crate::target::{self, Target};
+use crate::units::{
+    cm, kg_per_m3, mmhg, to_cm, to_kg_per_m3, to_mmhg, Length, LengthEntry, Pressure,
+    PressureEntry, PressureUnit,
+};
+
+/// Heights a reading level or measurement may have, cm from the heart.
+pub const HEIGHT_RANGE_CM: (f64, f64) = (-120.0, 120.0);
+/// Default half-width of a measured height, cm.
+pub const MEASURED_HEIGHT_CM: f64 = 1.0;
+/// Longest id of an arterial source.
+pub const MAX_ID_CHARS: usize = 40;
+/// Longest target source text.
+pub const MAX_SOURCE_CHARS: usize = 240;
+
+/// Where a reading refers to, resolved.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Place {
+    /// At a landmark, whose height comes from measurement or geometry.
+    At(Landmark),
+    /// At an explicit height above the heart reference.
+    Height {
+        /// The height.
+        height: Length,
+        /// How far it may be off.
+        uncertainty: Length,
+    },
+}
+
+impl Place {
+    /// The place in words.
+    pub fn describe(self) -> String {
+        match self {
+            Place::At(landmark) => landmark.label().to_owned(),
+            Place::Height { height, .. } => {
+                format!("{:+.1} cm from the heart reference", to_cm(height))
+            }
+        }
+    }
+}
+
+/// An arterial source, checked.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Arterial {
+    /// Its name.
+    pub id: String,
+    /// How it is measured.
+    pub method: Method,
+    /// Where it refers to.
+    pub place: Place,
+    /// Systolic, if given.
+    pub systolic: Option<Pressure>,
+    /// Diastolic, if given.
+    pub diastolic: Option<Pressure>,
+    /// Mean, measured or estimated.
+    pub mean: Option<(Pressure, MeanBasis)>,
+    /// Accuracy half-width, if given instead of the method's.
+    pub accuracy: Option<Pressure>,
+    /// The unit it was entered in, for showing required readings the same way.
+    pub unit: PressureUnit,
+}
+
+impl Arterial {
+    /// One component's value.
+    pub fn component(&self, component: Component) -> Option<Pressure> {
+        match component {
+            Component::Systolic => self.systolic,
+            Component::Diastolic => self.diastolic,
+            Component::Mean => self.mean.map(|(p, _)| p),
+        }
+    }
+
+    /// The accuracy half-width of a component's reading.
+    pub fn accuracy_of(&self, value: Pressure) -> Pressure {
+        self.accuracy.unwrap_or_else(|| self.method.accuracy(value))
+    }
+
+    /// Every component moved by the same amount, as when the site reading
+    /// changes with a shift of the whole waveform.
+    pub fn shifted_by(&self, delta: Pressure) -> Arterial {
+        let mut next = self.clone();
+        next.systolic = self.systolic.map(|p| p + delta);
+        next.diastolic = self.diastolic.map(|p| p + delta);
+        next.mean = self.mean.map(|(p, basis)| (p + delta, basis));
+        next
+    }
+}
+
+/// A pressure reading other than arterial, checked; or an assumed value.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Reading {
+    /// Which pressure.
+    pub quantity: Quantity,
+    /// Its value.
+    pub value: Pressure,
+    /// How it is measured; `None` when assumed.
+    pub method: Option<Method>,
+    /// Where it refers to.
+    pub place: Place,
+    /// Accuracy half-width (zero for assumed values: their error is the
+    /// user's assumption and is not in any range).
+    pub accuracy: Pressure,
+    /// The unit it was entered in.
+    pub unit: PressureUnit,
+}
+
+impl Reading {
+    /// Whether the value is assumed rather than measured.
+    pub fn is_assumed(&self) -> bool {
+        self.method.is_none()
+    }
+}
+
+/// The baseline arterial pressure, checked.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Baseline {
+    /// How it was measured.
+    pub method: Method,
+    /// Where it refers to.
+    pub place: Place,
+    /// The position it was taken in.
+    pub position: Position,
+    /// Systolic, if given.
+    pub systolic: Option<Pressure>,
+    /// Diastolic, if given.
+    pub diastolic: Option<Pressure>,
+    /// The mean, measured or estimated.
+    pub mean: (Pressure, MeanBasis),
+}
+
+/// A measured landmark height.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Measured {
+    /// Height above the heart reference.
+    pub height: Length,
+    /// How far it may be off.
+    pub uncertainty: Length,
+}
+
+/// Which input an uncertain value belongs to.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub enum Source {
+    /// An arterial source, by index.
+    Arterial(usize),
+    /// A non-arterial reading.
+    Reading(Quantity),
+    /// The baseline.
+    Baseline,
+}
+
+/// One uncertain input of a check.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub enum Param {
+    /// A geometry input (angle, proportion, offset).
+    Geometry(GeometryParam),
+    /// A measured landmark height.
+    Measured(Landmark),
+    /// The explicit transducer height of a reading.
+    Place(Source),
+    /// A fluid's density.
+    Density(Fluid),
+    /// A device's accuracy.
+    Device(Source),
+    /// The rule used to estimate a mean from systolic and diastolic.
+    MeanRule(Source),
+}
+
+/// Everything one check computes from, checked and in SI.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Scene {
+    /// The patient's size, when given.
+    pub body: Option<Body>,
+    /// The position, when given.
+    pub position: Option<Position>,
+    /// Measured landmark heights.
+    pub measured: BTreeMap<Landmark, Measured>,
+    /// Fluid densities.
+    pub densities: Densities,
+    /// The mean-estimation rule.
+    pub mean_rule: MeanRule,
+    /// Arterial sources, in case order.
+    pub arterial: Vec<Arterial>,
+    /// The index of the source that drives organ results.
+    pub primary: Option<usize>,
+    /// Other readings, measured or assumed.
+    pub readings: BTreeMap<Quantity, Reading>,
+    /// Organ levels chosen in the case.
+    pub organ_levels: BTreeMap<Organ, Landmark>,
+    /// Targets.
+    pub targets: Vec<Target>,
+    /// Baseline, when given.
+    pub baseline: Option<Baseline>,
+    /// Warnings found while checking the inputs.
+    pub warnings: Vec<Warning>,
+    /// A geometry shift in force (for uncertainty); `None` normally.
+    pub shift: Option<Shift>,
+}
+
+struct Checker {
+    errors: Errors,
+    warnings: Vec<Warning>,
+}
+
+impl Checker {
+    fn error(&mut self, error: Error) {
+        self.errors.push(error);
+    }
+
+    fn warn(&mut self, field: impl Into<String>, message: impl Into<String>) {
+        self.warnings.push(Warning::new(field, message));
+    }
+
+    /// A pressure within `range` mmHg, or an error suggesting the unit that
+    /// would put it in range.
+    fn pressure(
+        &mut self,
+        field: &str,
+        entry: PressureEntry,
+        range: (f64, f64),
+    ) -> Option<Pressure> {
+        let p = entry.pressure();
+        let v = to_mmhg(p);
+        if v.is_finite() && (range.0..=range.1).contains(&v) {
+            return Some(p);
+        }
+        let hint = PressureUnit::ALL
+            .into_iter()
+            .filter(|u| *u != entry.unit)
+            .find(|u| (range.0..=range.1).contains(&to_mmhg(u.pressure(entry.amount))))
+            .map(|u| {
+                format!(
+                    "as {} {} it would be in range; check the unit",
+                    entry.amount, u
+                )
+            });
+        self.error(Error::new(
+            field,
+            ErrorKind::OutOfRange {
+                value: entry.to_string(),
+                min: format!("{} mmHg", range.0),
+                max: format!("{} mmHg", range.1),
+                hint,
+            },
+        ));
+        None
+    }
+
+    fn length(&mut self, field: &str, entry: LengthEntry, range_cm: (f64, f64)) -> Option<Length> {
+        let l = entry.length();
+        let v = to_cm(l);
+        if v.is_finite() && (range_cm.0..=range_cm.1).contains(&v) {
+            Some(l)
+        } else {
+            self.error(Error::new(
+                field,
+                ErrorKind::OutOfRange {
+                    value: entry.to_string(),
+                    min: format!("{} cm", range_cm.0),
+                    max: format!("{} cm", range_cm.1),
+                    hint: None,
+                },
+            ));
+            None
+        }
+    }
+
+    fn accuracy(&mut self, field: &str, entry: Option<PressureEntry>) -> Option<Pressure> {
+        entry.and_then(|e| self.pressure(field, e, (0.0, 30.0)))
+    }
+
+    fn place(&mut self, field: &str, level: Level) -> Option<Place> {
+        match level {
+            Level::At(landmark) => Some(Place::At(landmark)),
+            Level::Height(entry) => self
+                .length(&format!("{field}.height"), entry, HEIGHT_RANGE_CM)
+                .map(|height| Place::Height {
+                    height,
+                    uncertainty: cm(MEASURED_HEIGHT_CM),
+                }),
+        }
+    }
+
+    /// Warns when the unit does not fit the method: a drain scale read in
+    /// mmHg, a monitor value entered as cmH2O.
+    fn unit_fit(&mut self, field: &str, entry: PressureEntry, method: Method, arterial: bool) {
+        let cmh2o_as_mmhg = to_mmhg(PressureUnit::CmH2O.pressure(entry.amount));
+        if method.reads_a_water_column() && entry.unit == PressureUnit::MmHg {
+            self.warn(
+                field,
+                format!(
+                    "drain and manometer scales are usually marked in cmH2O; if {} was read off \
+                     the scale, enter it as {} cmH2O ({:.1} mmHg)",
+                    entry.amount, entry.amount, cmh2o_as_mmhg
+                ),
+            );
+        } else if entry.unit == PressureUnit::CmH2O && (arterial || !method.reads_a_water_column())
+        {
+            self.warn(
+                field,
+                format!(
+                    "monitors show this pressure in mmHg; {} cmH2O is only {:.1} mmHg: check the unit",
+                    entry.amount, cmh2o_as_mmhg
+                ),
+            );
+        }
+    }
+
+    fn mean_of(
+        &mut self,
+        field: &str,
+        systolic: Option<Pressure>,
+        diastolic: Option<Pressure>,
+        mean: Option<Pressure>,
+        rule: MeanRule,
+        entered: [Option<PressureEntry>; 3],
+    ) -> Option<(Pressure, MeanBasis)> {
+        let show = |e: Option<PressureEntry>| e.map(|e| e.to_string()).unwrap_or_default();
+        let [se, de, me] = entered;
+        if let (Some(s), Some(d)) = (systolic, diastolic) {
+            if d >= s {
+                self.error(Error::inconsistent(
+                    format!("{field}.diastolic"),
+                    format!("diastolic {} is not below systolic {}", show(de), show(se)),
+                ));
+                return None;
+            }
+        }
+        if let Some(m) = mean {
+            if systolic.is_some_and(|s| m > s) {
+                self.error(Error::inconsistent(
+                    format!("{field}.mean"),
+                    format!("mean {} is above systolic {}", show(me), show(se)),
+                ));
+                return None;
+            }
+            if diastolic.is_some_and(|d| m < d) {
+                self.error(Error::inconsistent(
+                    format!("{field}.mean"),
+                    format!("mean {} is below diastolic {}", show(me), show(de)),
+                ));
+                return None;
+            }
+            return Some((m, MeanBasis::Measured));
+        }
+        match (systolic, diastolic) {
+            (Some(s), Some(d)) => Some((rule.estimate(s, d), MeanBasis::Estimated(rule))),
+            _ => None,
+        }
+    }
+
+    fn arterial(&mut self, i: usize, spec: &ArterialSpec, rule: MeanRule) -> Option<Arterial> {
+        let field = format!("arterial[{i}]");
+        let before = self.errors.0.len();
+        let id = spec.id.trim();
+        if id.is_empty() || id.chars().count() > MAX_ID_CHARS {
+            self.error(Error::new(
+                format!("{field}.id"),
+                ErrorKind::Shape {
+                    message: format!("a source needs a short name of 1-{MAX_ID_CHARS} characters"),
+                },
+            ));
+        }
+        let mut component = |name: &str, entry: Option<PressureEntry>, c: Component| {
+            entry.and_then(|e| {
+                self.unit_fit(&format!("{field}.{name}"), e, spec.method, true);
+                self.pressure(&format!("{field}.{name}"), e, c.range_mmhg())
+            })
+        };
+        let systolic = component("systolic", spec.systolic, Component::Systolic);
+        let diastolic = component("diastolic", spec.diastolic, Component::Diastolic);
+        let mean = component("mean", spec.mean, Component::Mean);
+        let accuracy = self.accuracy(&format!("{field}.accuracy"), spec.accuracy);
+        let place = self.place(&format!("{field}.level"), spec.level);
+        if spec.mean.is_none() && (spec.systolic.is_none() || spec.diastolic.is_none()) {
+            self.error(Error::missing(
+                field.clone(),
+                "an arterial source needs a mean, or both systolic and diastolic",
+            ));
+        }
+        if spec.method == Method::Cuff {
+            if let Level::At(landmark) = spec.level {
+                if !landmark.is_limb() {
+                    self.warn(
+                        format!("{field}.level"),
+                        format!(
+                            "a cuff reads the artery under it; '{landmark}' is not a limb: \
+                             give the landmark the cuff is on"
+                        ),
+                    );
+                }
+            }
+        }
+        let mean = self.mean_of(
+            &field,
+            systolic,
+            diastolic,
+            mean,
+            rule,
+            [spec.systolic, spec.diastolic, spec.mean],
+        );
+        if self.errors.0.len() > before {
+            return None;
+        }
+        let unit = spec
+            .mean
+            .or(spec.systolic)
+            .or(spec.diastolic)
+            .map_or(PressureUnit::MmHg, |e| e.unit);
+        Some(Arterial {
+            id: id.to_owned(),
+            method: spec.method,
+            place: place?,
+            systolic,
+            diastolic,
+            mean,
+            accuracy,
+            unit,
+        })
+    }
+
+    fn local_place(&mut self, field: &str, quantity: Quantity, place: Place) -> bool {
+        let ok = match (quantity, place) {
+            (Quantity::Iop, Place::At(l)) => l.is_eye(),
+            (Quantity::Compartment, Place::At(l)) => l.is_limb(),
+            (Quantity::Iop | Quantity::Compartment, Place::Height { .. }) => false,
+            _ => true,
+        };
+        if !ok {
+            let what = if quantity == Quantity::Iop {
+                "an eye (eye_left or eye_right)"
+            } else {
+                "the limb landmark of the compartment (calf_left, thigh_right, ...)"
+            };
+            self.error(Error::not_applicable(
+                field,
+                format!(
+                    "{} is measured in the tissue itself: its level is {what}",
+                    quantity.label()
+                ),
+            ));
+        }
+        ok
+    }
+
+    fn reading(&mut self, quantity: Quantity, spec: &ReadingSpec) -> Option<Reading> {
+        let field = format!("readings.{quantity}");
+        self.unit_fit(&format!("{field}.value"), spec.value, spec.method, false);
+        let value = self.pressure(&format!("{field}.value"), spec.value, quantity.range_mmhg());
+        let accuracy = self.accuracy(&format!("{field}.accuracy"), spec.accuracy);
+        let place = self.place(&format!("{field}.level"), spec.level)?;
+        if !self.local_place(&format!("{field}.level"), quantity, place) {
+            return None;
+        }
+        let value = value?;
+        Some(Reading {
+            quantity,
+            value,
+            method: Some(spec.method),
+            place,
+            accuracy: accuracy.unwrap_or_else(|| spec.method.accuracy(value)),
+            unit: spec.value.unit,
+        })
+    }
+
+    fn assumed(
+        &mut self,
+        quantity: Quantity,
+        value: PressureEntry,
+        level: Option<Level>,
+    ) -> Option<Reading> {
+        let field = format!("assume.{quantity}");
+        let p = self.pressure(&format!("{field}.value"), value, quantity.range_mmhg());
+        let default = match quantity {
+            Quantity::Icp => Some(Landmark::Tragus),
+            Quantity::Iap => Some(Landmark::IliacCrest),
+            Quantity::Iop | Quantity::Compartment => None,
+            _ => Some(Landmark::Heart),
+        };
+        let place = match (level, default) {
+            (Some(level), _) => self.place(&format!("{field}.level"), level)?,
+            (None, Some(landmark)) => Place::At(landmark),
+            (None, None) => {
+                self.error(Error::missing(
+                    format!("{field}.level"),
+                    format!(
+                        "an assumed {} needs the landmark it applies to",
+                        quantity.label()
+                    ),
+                ));
+                return None;
+            }
+        };
+        if !self.local_place(&format!("{field}.level"), quantity, place) {
+            return None;
+        }
+        Some(Reading {
+            quantity,
+            value: p?,
+            method: None,
+            place,
+            accuracy: mmhg(0.0),
+            unit: value.unit,
+        })
+    }
+
+    fn baseline(&mut self, spec: &BaselineSpec, rule: MeanRule) -> Option<Baseline> {
+        let field = "baseline";
+        let before = self.errors.0.len();
+        let mut component = |name: &str, entry: Option<PressureEntry>, c: Component| {
+            entry.and_then(|e| self.pressure(&format!("{field}.{name}"), e, c.range_mmhg()))
+        };
+        let systolic = component("systolic", spec.systolic, Component::Systolic);
+        let diastolic = component("diastolic", spec.diastolic, Component::Diastolic);
+        let mean = component("mean", spec.mean, Component::Mean);
+        let place = self.place(&format!("{field}.level"), spec.level);
+        let position = match spec.position.resolve(&format!("{field}.position")) {
+            Ok(p) => Some(p),
+            Err(errors) => {
+                self.errors.0.extend(errors.0);
+                None
+            }
+        };
+        let mean = self.mean_of(
+            field,
+            systolic,
+            diastolic,
+            mean,
+            rule,
+            [spec.systolic, spec.diastolic, spec.mean],
+        );
+        if mean.is_none() && self.errors.0.len() == before {
+            self.error(Error::missing(
+                field,
+                "a baseline needs a mean, or both systolic and diastolic",
+            ));
+        }
+        Some(Baseline {
+            method: spec.method,
+            place: place?,
+            position: position?,
+            systolic,
+            diastolic,
+            mean: mean?,
+        })
+    }
+}
+
+impl Scene {
+    /// Checks a case and builds the scene.
+    ///
+    /// # Errors
+    /// Every problem found, each naming its field: values out of range
+    /// (with a unit hint when another unit fits), contradictions (diastolic
+    /// above systolic), missing pieces (a landmark with no height), settings
+    /// that do not apply.
+    pub fn from_case(case: &Case) -> Result<Scene, Errors> {
+        let mut c = Checker {
+            errors: Errors::default(),
+            warnings: Vec::new(),
+        };
+        let body_height = case
+            .patient
+            .height
+            .and_then(|h| c.length("patient.height", h, BODY_HEIGHT_RANGE_CM));
+        let mut densities = Densities::default();
+        if let Some(pct) = case.patient.haematocrit_percent {
+            match blood_from_haematocrit(pct / 100.0) {
+                Some(range) => densities.blood = range,
+                None => c.error(Error::new(
+                    "patient.haematocrit_percent",
+                    ErrorKind::OutOfRange {
+                        value: format!("{pct}%"),
+                        min: "10%".into(),
+                        max: "70%".into(),
+                        hint: (0.1..=0.7)
+                            .contains(&pct)
+                            .then(|| "give it in percent: 42 for a haematocrit of 0.42".into()),
+                    },
+                )),
+            }
+        }
+        for (fluid, entry) in [
+            (Fluid::Blood, case.densities.blood),
+            (Fluid::Csf, case.densities.csf),
+            (Fluid::Saline, case.densities.saline),
+        ] {
+            let Some(entry) = entry else { continue };
+            let v = to_kg_per_m3(entry.0);
+            if (900.0..=1200.0).contains(&v) {
+                *densities.get_mut(fluid) = DensityRange::entered(kg_per_m3(v));
+            } else {
+                c.error(Error::new(
+                    format!("densities.{}", fluid_key(fluid)),
+                    ErrorKind::OutOfRange {
+                        value: entry.to_string(),
+                        min: "900 kg/m3".into(),
+                        max: "1200 kg/m3".into(),
+                        hint: None,
+                    },
+                ));
+            }
+        }
+
+        let position = case
+            .position
+            .as_ref()
+            .and_then(|spec| match spec.resolve("position") {
+                Ok(p) => Some(p),
+                Err(errors) => {
+                    c.errors.0.extend(errors.0);
+                    None
+                }
+            });
+        if case.position.is_some() && case.patient.height.is_none() {
+            c.error(Error::missing(
+                "patient.height",
+                "the position needs the patient's standing height to place the landmarks",
+            ));
+        }
+        let mut body = body_height.map(Body::of_height);
+        for (segment, entry) in &case.segments {
+            let field = format!("segments.{}", segment.key());
+            if let (Some(len), Some(body)) = (c.length(&field, *entry, (5.0, 100.0)), body.as_mut())
+            {
+                body.measured.insert(*segment, len);
+            }
+        }
+        if position.as_ref().is_some_and(|p| p.lie.is_lateral()) {
+            c.warn(
+                "position",
+                "in side-lying the phlebostatic axis is not defined (Kee et al. 1993); heights are \
+                 taken from the centre of the chest at the 4th intercostal space: level transducers \
+                 there, or enter measured heights",
+            );
+        }
+
+        let mut measured = BTreeMap::new();
+        for (landmark, spec) in &case.heights {
+            if let Some(m) = measured_height(&mut c, *landmark, spec) {
+                measured.insert(*landmark, m);
+            }
+        }
+
+        let mean_rule = case.mean_rule.unwrap_or_default();
+        let mut arterial = Vec::new();
+        let mut ids: Vec<&str> = Vec::new();
+        for (i, spec) in case.arterial.iter().enumerate() {
+            let id = spec.id.trim();
+            if ids.contains(&id) {
+                c.error(Error::new(
+                    format!("arterial[{i}].id"),
+                    ErrorKind::Duplicate {
+                        name: id.to_owned(),
+                    },
+                ));
+            }
+            ids.push(id);
+            if let Some(a) = c.arterial(i, spec, mean_rule) {
+                arterial.push(a);
+            }
+        }
+        let primary = match &case.primary_arterial {
+            Some(id) => {
+                let found = arterial.iter().position(|a| a.id == id.trim());
+                if found.is_none() && ids.len() == case.arterial.len() && !ids.contains(&id.trim())
+                {
+                    c.error(Error::new(
+                        "primary_arterial",
+                        ErrorKind::UnknownReference { name: id.clone() },
+                    ));
+                }
+                found
+            }
+            None => arterial
+                .iter()
+                .position(|a| a.method != Method::Cuff)
+                .or(if arterial.is_empty() { None } else { Some(0) }),
+        };
+
+        let mut readings = BTreeMap::new();
+        for (quantity, spec) in &case.readings {
+            if let Some(r) = c.reading(*quantity, spec) {
+                readings.insert(*quantity, r);
+            }
+        }
+        for (quantity, spec) in &case.assume {
+            if case.readings.contains_key(quantity) {
+                c.warn(
+                    format!("assume.{quantity}"),
+                    format!(
+                        "{} was measured, so the assumed value is not used",
+                        quantity.label()
+                    ),
+                );
+                continue;
+            }
+            if let Some(r) = c.assumed(*quantity, spec.value, spec.level) {
+                readings.insert(*quantity, r);
+            }
+        }
+
+        let mut organ_levels = BTreeMap::new();
+        for (organ, landmark) in &case.organ_levels {
+            let field = format!("organ_levels.{organ}");
+            match organ {
+                Organ::Cord | Organ::Kidney if organ.level_choices().contains(landmark) => {
+                    organ_levels.insert(*organ, *landmark);
+                }
+                Organ::Cord | Organ::Kidney => c.error(Error::not_applicable(
+                    field,
+                    format!(
+                        "{} can be checked at {}",
+                        organ.label(),
+                        organ
+                            .level_choices()
+                            .iter()
+                            .map(|l| l.key())
+                            .collect::<Vec<_>>()
+                            .join(" or ")
+                    ),
+                )),
+                Organ::Eye => c.error(Error::not_applicable(
+                    field,
+                    "the eye is checked where IOP was measured (readings.iop.level)",
+                )),
+                Organ::Limb => c.error(Error::not_applicable(
+                    field,
+                    "the limb is checked where compartment pressure was measured \
+                     (readings.compartment.level)",
+                )),
+                _ => c.error(Error::not_applicable(
+                    field,
+                    format!("{} is always checked at its fixed landmark", organ.label()),
+                )),
+            }
+        }
+
+        let targets = match &case.targets {
+            None => target::defaults(),
+            Some(specs) => {
+                let mut targets = Vec::new();
+                for (i, spec) in specs.iter().enumerate() {
+                    let field = format!("targets[{i}]");
+                    if spec
+                        .source
+                        .as_ref()
+                        .is_some_and(|s| s.chars().count() > MAX_SOURCE_CHARS)
+                    {
+                        c.error(Error::new(
+                            format!("{field}.source"),
+                            ErrorKind::Shape {
+                                message: format!("at most {MAX_SOURCE_CHARS} characters"),
+                            },
+                        ));
+                    }
+                    match spec.resolve(&field) {
+                        Ok(t) => targets.push(t),
+                        Err(errors) => c.errors.0.extend(errors.0),
+                    }
+                }
+                targets
+            }
+        };
+
+        let baseline = case
+            .baseline
+            .as_ref()
+            .and_then(|b| c.baseline(b, mean_rule));
+        if case.baseline.is_some() && body.is_none() && case.patient.height.is_none() {
+            c.error(Error::missing(
+                "patient.height",
+                "the baseline's position needs the patient's standing height",
+            ));
+        }
+
+        let scene = Scene {
+            body,
+            position,
+            measured,
+            densities,
+            mean_rule,
+            arterial,
+            primary,
+            readings,
+            organ_levels,
+            targets,
+            baseline,
+            warnings: Vec::new(),
+            shift: None,
+        };
+        scene.check_places(&mut c);
+        let Checker { errors, warnings } = c;
+        errors.into_result(Scene { warnings, ..scene })
+    }
+
+    /// Every landmark a reading refers to must have a height.
+    fn check_places(&self, c: &mut Checker) {
+        let mut need = |field: String, place: Place| {
+            if let Place::At(landmark) = place {
+                if !self.has_height(landmark) {
+                    c.error(Error::missing(
+                        field,
+                        format!(
+                            "the height of the {} is not known: measure it (heights.{landmark}) \
+                             or give the position and patient height",
+                            landmark.label()
+                        ),
+                    ));
+                }
+            }
+        };
+        for (i, a) in self.arterial.iter().enumerate() {
+            need(format!("arterial[{i}].level"), a.place);
+        }
+        for (q, r) in &self.readings {
+            let section = if r.is_assumed() { "assume" } else { "readings" };
+            need(format!("{section}.{q}.level"), r.place);
+        }
+    }
+
+    /// Whether a landmark's height is known (measured, estimated, or the datum).
+    pub fn has_height(&self, landmark: Landmark) -> bool {
+        landmark == Landmark::Heart
+            || self.measured.contains_key(&landmark)
+            || (self.position.is_some() && self.body.is_some())
+    }
+
+    /// Every landmark's height in the current position, with any shift in
+    /// force: measured heights win, the geometry fills the rest.
+    pub fn heights(&self) -> BTreeMap<Landmark, Length> {
+        let mut heights = match (&self.body, &self.position) {
+            (Some(body), Some(position)) => geometry::place(body, position, self.shift).heights,
+            _ => BTreeMap::new(),
+        };
+        heights.insert(Landmark::Heart, cm(0.0));
+        for (landmark, m) in &self.measured {
+            heights.insert(*landmark, m.height);
+        }
+        heights
+    }
+
+    /// Every landmark's height in the baseline's position.
+    pub fn baseline_heights(&self) -> Option<BTreeMap<Landmark, Length>> {
+        let baseline = self.baseline.as_ref()?;
+        let body = self.body.as_ref()?;
+        let mut heights = geometry::place(body, &baseline.position, self.shift).heights;
+        heights.insert(Landmark::Heart, cm(0.0));
+        Some(heights)
+    }
+
+    /// The uncertain inputs of this scene, each to be shifted in turn.
+    pub fn params(&self) -> Vec<Param> {
+        let mut geometry: Vec<GeometryParam> = Vec::new();
+        if self.body.is_some() {
+            let positions = self
+                .position
+                .iter()
+                .chain(self.baseline.iter().map(|b| &b.position));
+            for position in positions {
+                geometry.extend(GeometryParam::all_for(position));
+            }
+        }
+        geometry.sort();
+        geometry.dedup();
+        let mut params: Vec<Param> = geometry.into_iter().map(Param::Geometry).collect();
+        params.extend(self.measured.keys().map(|l| Param::Measured(*l)));
+        params.extend(Fluid::ALL.map(Param::Density));
+        for (i, a) in self.arterial.iter().enumerate() {
+            let source = Source::Arterial(i);
+            params.push(Param::Device(source));
+            if matches!(a.place, Place::Height { .. }) {
+                params.push(Param::Place(source));
+            }
+            if matches!(a.mean, Some((_, MeanBasis::Estimated(_)))) {
+                params.push(Param::MeanRule(source));
+            }
+        }
+        for (q, r) in &self.readings {
+            if r.is_assumed() {
+                continue;
+            }
+            params.push(Param::Device(Source::Reading(*q)));
+            if matches!(r.place, Place::Height { .. }) {
+                params.push(Param::Place(Source::Reading(*q)));
+            }
+        }
+        if let Some(b) = &self.baseline {
+            params.push(Param::Device(Source::Baseline));
+            if matches!(b.mean.1, MeanBasis::Estimated(_)) {
+                params.push(Param::MeanRule(Source::Baseline));
+            }
+        }
+        params
+    }
+
+    /// A copy with one input moved by `sign` (±1) times its half-width.
+    pub fn shifted(&self, param: Param, sign: f64) -> Scene {
+        let mut next = self.clone();
+        match param {
+            Param::Geometry(p) => next.shift = Some(Shift { param: p, sign }),
+            Param::Measured(landmark) => {
+                if let Some(m) = next.measured.get_mut(&landmark) {
+                    m.height += m.uncertainty * sign;
+                }
+            }
+            Param::Density(fluid) => {
+                let range = next.densities.get_mut(fluid);
+                range.nominal = if sign > 0.0 { range.high } else { range.low };
+            }
+            Param::Place(source) => {
+                if let Some(Place::Height {
+                    height,
+                    uncertainty,
+                }) = next.place_mut(source)
+                {
+                    *height += *uncertainty * sign;
+                }
+            }
+            Param::Device(Source::Arterial(i)) => {
+                if let Some(a) = next.arterial.get_mut(i) {
+                    let reference = a
+                        .component(Component::Mean)
+                        .or(a.diastolic)
+                        .unwrap_or_default();
+                    *a = a.shifted_by(a.accuracy_of(reference) * sign);
+                }
+            }
+            Param::Device(Source::Reading(q)) => {
+                if let Some(r) = next.readings.get_mut(&q) {
+                    r.value += r.accuracy * sign;
+                }
+            }
+            Param::Device(Source::Baseline) => {
+                if let Some(b) = next.baseline.as_mut() {
+                    b.mean.0 += b.method.accuracy(b.mean.0) * sign;
+                }
+            }
+            Param::MeanRule(Source::Arterial(i)) => {
+                if let Some(a) = next.arterial.get_mut(i) {
+                    if let Some((m, basis)) = a.mean {
+                        a.mean = Some((m + rule_gap(a.systolic, a.diastolic, basis) * sign, basis));
+                    }
+                }
+            }
+            Param::MeanRule(Source::Baseline) => {
+                if let Some(b) = next.baseline.as_mut() {
+                    b.mean.0 += rule_gap(b.systolic, b.diastolic, b.mean.1) * sign;
+                }
+            }
+            Param::MeanRule(Source::Reading(_)) => {}
+        }
+        next
+    }
+
+    fn place_mut(&mut self, source: Source) -> Option<&mut Place> {
+        match source {
+            Source::Arterial(i) => self.arterial.get_mut(i).map(|a| &mut a.place),
+            Source::Reading(q) => self.readings.get_mut(&q).map(|r| &mut r.place),
+            Source::Baseline => self.baseline.as_mut().map(|b| &mut b.place),
+        }
+    }
+
+    /// The uncertain input in words, with its half-width.
+    pub fn param_label(&self, param: Param) -> String {
+        let body = self
+            .body
+            .clone()
+            .unwrap_or_else(|| Body::of_height(cm(170.0)));
+        match param {
+            Param::Geometry(p) => p.label(&body),
+            Param::Measured(landmark) => format!(
+                "measured height of the {} ±{:.0} cm",
+                landmark.label(),
+                self.measured
+                    .get(&landmark)
+                    .map_or(0.0, |m| to_cm(m.uncertainty))
+            ),
+            Param::Density(fluid) => {
+                let r = self.densities.get(fluid);
+                format!(
+                    "{} density {:.0}-{:.0} kg/m³",
+                    fluid.label(),
+                    to_kg_per_m3(r.low),
+                    to_kg_per_m3(r.high)
+                )
+            }
+            Param::Place(source) => format!("{} transducer height ±1 cm", self.source_name(source)),
+            Param::Device(source) => format!("{} device accuracy", self.source_name(source)),
+            Param::MeanRule(source) => {
+                format!(
+                    "{} mean estimated from systolic and diastolic",
+                    self.source_name(source)
+                )
+            }
+        }
+    }
+
+    /// The name of an input source in words.
+    pub fn source_name(&self, source: Source) -> String {
+        match source {
+            Source::Arterial(i) => self
+                .arterial
+                .get(i)
+                .map_or_else(|| "arterial source".to_owned(), |a| a.id.clone()),
+            Source::Reading(q) => q.label().to_owned(),
+            Source::Baseline => "baseline".to_owned(),
+        }
+    }
+
+    /// The density of a fluid in force.
+    pub fn density(&self, fluid: Fluid) -> crate::units::Density {
+        self.densities.get(fluid).nominal
+    }
+}
+
+/// How far the other estimation rule would put the mean: the spread of an
+/// estimated mean. Zero for a measured mean.
+fn rule_gap(systolic: Option<Pressure>, diastolic: Option<Pressure>, basis: MeanBasis) -> Pressure {
+    match (systolic, diastolic, basis) {
+        (Some(s), Some(d), MeanBasis::Estimated(rule)) => {
+            (rule.other().estimate(s, d) - rule.estimate(s, d)).abs()
+        }
+        _ => mmhg(0.0),
+    }
+}
+
+fn measured_height(c: &mut Checker, landmark: Landmark, spec: &HeightSpec) -> Option<Measured> {
+    let field = format!("heights.{landmark}");
+    let height = c.length(&field, spec.height, HEIGHT_RANGE_CM);
+    let uncertainty = match spec.uncertainty {
+        Some(u) => c.length(&format!("{field}.uncertainty"), u, (0.0, 30.0)),
+        None => Some(cm(MEASURED_HEIGHT_CM)),
+    };
+    if landmark == Landmark::Heart && height.is_some_and(|h| to_cm(h) != 0.0) {
+        c.error(Error::inconsistent(
+            field,
+            "the heart reference is the datum: its height is 0 by definition",
+        ));
+        return None;
+    }
+    Some(Measured {
+        height: height?,
+        uncertainty: uncertainty?,
+    })
+}
+
+fn fluid_key(fluid: Fluid) -> &'static str {
+    match fluid {
+        Fluid::Blood => "blood",
+        Fluid::Csf => "csf",
+        Fluid::Saline => "saline",
+    }
+}
+
