@@ -297,6 +297,11 @@ impl PressureEntry {
     pub fn pressure(self) -> Pressure {
         self.unit.pressure(self.amount)
     }
+
+    /// The same pressure written in another unit, for a unit switch on screen.
+    pub fn convert_to(self, unit: PressureUnit) -> Self {
+        PressureEntry::new(unit.value(self.pressure()), unit)
+    }
 }
 
 impl FromStr for PressureEntry {
@@ -361,6 +366,11 @@ impl LengthEntry {
     /// The physical length.
     pub fn length(self) -> Length {
         self.unit.length(self.amount)
+    }
+
+    /// The same length written in another unit, for a unit switch on screen.
+    pub fn convert_to(self, unit: LengthUnit) -> Self {
+        LengthEntry::new(unit.value(self.length()), unit)
     }
 }
 
@@ -540,6 +550,16 @@ mod tests {
         let b: DensityEntry = "1.055 g/mL".parse().unwrap();
         assert!(close(to_kg_per_m3(a.0), to_kg_per_m3(b.0), 1e-9));
         assert!("1055".parse::<DensityEntry>().is_err());
+    }
+
+    #[test]
+    fn conversion_keeps_the_physical_value() {
+        let entry = PressureEntry::new(20.0, PressureUnit::MmHg).convert_to(PressureUnit::CmH2O);
+        assert!(close(entry.amount, 27.19, 0.01));
+        let back = entry.convert_to(PressureUnit::MmHg);
+        assert!(close(back.amount, 20.0, 1e-9));
+        let inches = LengthEntry::cm(25.4).convert_to(LengthUnit::Inch);
+        assert!(close(inches.amount, 10.0, 1e-12));
     }
 
     #[test]
