@@ -110,9 +110,14 @@ fn write_report(out: &mut String, r: &Report) -> std::fmt::Result {
                 .largest_contributor
                 .as_deref()
                 .map_or(String::new(), |c| format!("; most from {c}"));
+            let excluded = if m.assumed.is_empty() {
+                String::new()
+            } else {
+                "; the assumed value's own error is not in the range".to_owned()
+            };
             writeln!(
                 out,
-                "  {:<44} {:>4} mmHg  (range {} to {}{largest})",
+                "  {:<44} {:>4} mmHg  (range {} to {}{largest}{excluded})",
                 m.label,
                 rounded(m.value_mmhg),
                 rounded(m.lower_mmhg),
@@ -170,15 +175,21 @@ const SHOWN: [f64; 7] = [0.0, 15.0, 30.0, 45.0, 60.0, 75.0, 90.0];
 
 fn write_sweeps(out: &mut String, sweeps: &[Sweep]) -> std::fmt::Result {
     writeln!(out, "Site reading needed by backrest angle (mmHg)")?;
-    write!(out, "  {:<52}", "target (site, component)")?;
+    let names: Vec<String> = sweeps
+        .iter()
+        .map(|s| {
+            let component = s.component.map_or("", |c| c.label());
+            format!("{} ({}, {component})", s.target, s.site)
+        })
+        .collect();
+    let width = names.iter().map(|n| n.chars().count()).max().unwrap_or(0) + 2;
+    write!(out, "  {:<width$}", "target (site, component)")?;
     for deg in SHOWN {
         write!(out, "{:>6}", format!("{deg:.0}°"))?;
     }
     writeln!(out)?;
-    for s in sweeps {
-        let component = s.component.map_or("", |c| c.label());
-        let name = format!("{} ({}, {component})", s.target, s.site);
-        write!(out, "  {name:<52}")?;
+    for (s, name) in sweeps.iter().zip(&names) {
+        write!(out, "  {name:<width$}")?;
         for deg in SHOWN {
             let point = s
                 .points
