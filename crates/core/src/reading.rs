@@ -265,16 +265,16 @@ impl<'de> Deserialize<'de> for Level {
     fn deserialize<D: Deserializer<'de>>(deserializer: D) -> Result<Self, D::Error> {
         use serde::de::Error as _;
         match serde_json::Value::deserialize(deserializer)? {
-            serde_json::Value::String(name) => serde_json::from_value(serde_json::Value::String(
-                name.clone(),
-            ))
-            .map(Level::At)
-            .map_err(|_| {
-                D::Error::custom(format!(
+            serde_json::Value::String(name) => {
+                serde_json::from_value(serde_json::Value::String(name.clone()))
+                    .map(Level::At)
+                    .map_err(|_| {
+                        D::Error::custom(format!(
                     "'{name}' is not a landmark; use one of {}, or {{\"height\": \"12 cm\"}}",
                     Landmark::ALL.map(Landmark::key).join(", ")
                 ))
-            }),
+                    })
+            }
             value @ serde_json::Value::Object(_) => serde_json::from_value::<LevelHeight>(value)
                 .map(|l| Level::Height(l.height))
                 .map_err(|e| D::Error::custom(format!("a level given as a height: {e}"))),

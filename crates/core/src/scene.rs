@@ -652,6 +652,24 @@ impl Scene {
             );
         }
 
+        if case.readings.contains_key(&Quantity::Iap) {
+            if let Some(p) = position.as_ref().filter(|p| {
+                p.lie != geometry::Lie::FaceUp
+                    || p.angles.backrest_deg != 0.0
+                    || p.angles.tilt_deg != 0.0
+            }) {
+                c.warn(
+                    "readings.iap",
+                    format!(
+                        "IAP is standardised supine and flat, at end-expiration (WSACS 2013); \
+                         in this position ({}) the reading differs (head-up raises it): \
+                         compare it with supine values with care",
+                        p.posture.label()
+                    ),
+                );
+            }
+        }
+
         let mut measured = BTreeMap::new();
         for (landmark, spec) in &case.heights {
             if let Some(m) = measured_height(&mut c, *landmark, spec) {
@@ -1069,4 +1087,3 @@ fn fluid_key(fluid: Fluid) -> &'static str {
         Fluid::Saline => "saline",
     }
 }
-

@@ -121,6 +121,9 @@ pub enum GeometryParam {
     Backrest,
     /// The table tilt (±2°).
     Tilt,
+    /// Roll about the body's long axis: how far from exactly on the back,
+    /// front or side the patient lies (±5°, ±10° on a side).
+    Roll,
     /// The neck flexion (±10°).
     NeckFlexion,
     /// The hip flexion (±10°).
@@ -155,6 +158,7 @@ impl GeometryParam {
             GeometryParam::Segment(s) => PROPORTION_SPREAD * body.segment_cm(s),
             GeometryParam::Backrest => 5.0,
             GeometryParam::Tilt => 2.0,
+            GeometryParam::Roll => 5.0,
             GeometryParam::NeckFlexion
             | GeometryParam::HipFlexion
             | GeometryParam::KneeFlexion
@@ -178,6 +182,9 @@ impl GeometryParam {
             }
             GeometryParam::Backrest => format!("backrest angle ±{hw:.0}°"),
             GeometryParam::Tilt => format!("table tilt ±{hw:.0}°"),
+            GeometryParam::Roll => {
+                format!("roll about the long axis ±{hw:.0}° (twice that on a side)")
+            }
             GeometryParam::NeckFlexion => format!("neck flexion ±{hw:.0}°"),
             GeometryParam::HipFlexion => format!("hip flexion ±{hw:.0}°"),
             GeometryParam::KneeFlexion => format!("knee flexion ±{hw:.0}°"),
@@ -203,6 +210,7 @@ impl GeometryParam {
         }
         params.extend([
             GeometryParam::Tilt,
+            GeometryParam::Roll,
             GeometryParam::NeckFlexion,
             GeometryParam::HipFlexion,
             GeometryParam::KneeFlexion,
@@ -357,6 +365,10 @@ pub fn place(body: &Body, position: &Position, shift: Option<Shift>) -> Placemen
         Lie::LeftDown => V3::L.scale(-1.0),
         Lie::RightDown => V3::L,
     };
+    // Roll turns the up direction toward the front of the body; on a side a
+    // patient is rarely at exactly 90°, so the roll counts double there.
+    let roll_scale = if position.lie.is_lateral() { 2.0 } else { 1.0 };
+    let base_up = base_up.toward(roll_axis(position.lie), d(GeometryParam::Roll) * roll_scale);
     let up = base_up.toward(V3::C, tilt);
     let along = V3::C.toward(base_up, -tilt);
     let trunk_c = V3::C.toward(V3::A, backrest);
@@ -615,6 +627,16 @@ fn leg_joints(
         knee,
         mid_calf: knee.add(calf_dir.scale(calf_len / 2.0)),
         ankle: knee.add(calf_dir.scale(calf_len)),
+    }
+}
+
+/// The body direction a roll turns "up" toward: the front when on a side,
+/// the left side otherwise.
+fn roll_axis(lie: Lie) -> V3 {
+    if lie.is_lateral() {
+        V3::A
+    } else {
+        V3::L
     }
 }
 
