@@ -11,7 +11,9 @@ use std::path::PathBuf;
 use std::process::ExitCode;
 
 use clap::{Parser, Subcommand};
-use plumbline_core::{check, demo, report::Report};
+use plumbline_core::case::{Case, RulesSpec};
+use plumbline_core::error::Errors;
+use plumbline_core::{check, demo, record, report::Report};
 
 /// Organ perfusion pressure with hydrostatic correction for posture.
 ///
@@ -40,6 +42,41 @@ enum Command {
         #[arg(long)]
         json: bool,
     },
+    /// Exposure outside each target over a monitor record (CSV), with the
+    /// case's geometry and targets.
+    Record {
+        /// The record file (CSV; see docs/record-format.md), or - for standard input.
+        file: String,
+        /// The case whose sources, position and targets the record belongs to.
+        #[arg(long)]
+        case: String,
+        /// How long an intermittent reading (a cuff) is held, seconds.
+        #[arg(long)]
+        hold_max_s: Option<f64>,
+        /// The longest gap continuous samples are interpolated across, seconds.
+        #[arg(long)]
+        gap_max_s: Option<f64>,
+        /// Ignore episodes outside a target shorter than this, seconds.
+        #[arg(long)]
+        min_episode_s: Option<f64>,
+        /// Print the exposure as JSON instead of a table.
+        #[arg(long)]
+        json: bool,
+        /// Print the organ-level series as CSV instead of the summary.
+        #[arg(long, conflicts_with = "json")]
+        series: bool,
+        /// Also write the case with its record (JSON) to this file.
+        #[arg(long)]
+        write_case: Option<PathBuf>,
+    },
+}
+
+/// What `record` is asked for, besides the files.
+struct RecordOptions {
+    rules: RulesSpec,
+    json: bool,
+    series: bool,
+    write_case: Option<PathBuf>,
 }
 
 fn read_input(file: &str) -> Result<String, String> {
@@ -83,6 +120,63 @@ fn run(name: &str, text: &str, json: bool) -> ExitCode {
     }
 }
 
+fn bad(name: &str, errors: &Errors) -> ExitCode {
+    eprintln!("plumbline: {name} could not be read:");
+    for error in errors.iter() {
+        eprintln!("  {error}");
+    }
+    ExitCode::from(2)
+}
+
+fn record(file: &str, case_file: &str, options: RecordOptions) -> ExitCode {
+    let (csv, case_text) = match (read_input(file), read_input(case_file)) {
+        (Ok(csv), Ok(case)) => (csv, case),
+        (Err(message), _) | (_, Err(message)) => {
+            eprintln!("plumbline: {message}");
+            return ExitCode::from(2);
+        }
+    };
+    let case = match Case::from_json(&case_text) {
+        Ok(case) => case,
+        Err(errors) => return bad(case_file, &errors),
+    };
+    let mut case = match record::import_into(&case, &csv) {
+        Ok(case) => case,
+        Err(errors) => return bad(file, &errors),
+    };
+    if let Some(timeline) = case.timeline.as_mut() {
+        let rules = &mut timeline.rules;
+        let given = options.rules;
+        rules.hold_max_s = given.hold_max_s.or(rules.hold_max_s);
+        rules.gap_max_s = given.gap_max_s.or(rules.gap_max_s);
+        rules.min_episode_s = given.min_episode_s.or(rules.min_episode_s);
+    }
+    let (exposure, series) = match record::exposure_of(&case) {
+        Ok(result) => result,
+        Err(errors) => return bad("the record's rules", &errors),
+    };
+    if let Some(path) = &options.write_case {
+        if let Err(e) = std::fs::write(path, case.to_json()) {
+            eprintln!("plumbline: cannot write {}: {e}", path.display());
+            return ExitCode::from(2);
+        }
+    }
+    if options.series {
+        print!("{series}");
+    } else if options.json {
+        match serde_json::to_string_pretty(&exposure) {
+            Ok(text) => println!("{text}"),
+            Err(e) => {
+                eprintln!("plumbline: cannot write the exposure as JSON: {e}");
+                return ExitCode::from(2);
+            }
+        }
+    } else {
+        print!("{}", table::render_exposure(&exposure));
+    }
+    ExitCode::SUCCESS
+}
+
 fn main() -> ExitCode {
     let cli = Cli::parse();
     match cli.command {
@@ -97,5 +191,28 @@ fn main() -> ExitCode {
             }
         },
         Command::Demo { json } => run("the demo case", demo::CASE_JSON, json),
+        Command::Record {
+            file,
+            case,
+            hold_max_s,
+            gap_max_s,
+            min_episode_s,
+            json,
+            series,
+            write_case,
+        } => record(
+            &file,
+            &case,
+            RecordOptions {
+                rules: RulesSpec {
+                    hold_max_s,
+                    gap_max_s,
+                    min_episode_s,
+                },
+                json,
+                series,
+                write_case,
+            },
+        ),
     }
 }

@@ -5,6 +5,7 @@
 
 use std::fmt::Write;
 
+use plumbline_core::record::{elapsed_words, Exposure};
 use plumbline_core::report::{Report, Sweep};
 use plumbline_core::target::Status;
 
@@ -211,4 +212,38 @@ fn write_sweeps(out: &mut String, sweeps: &[Sweep]) -> std::fmt::Result {
         writeln!(out, "  ({})", first.note)?;
     }
     writeln!(out)
+}
+
+/// An exposure summary as text.
+pub fn render_exposure(e: &Exposure) -> String {
+    let mut out = String::new();
+    let _ = write_exposure(&mut out, e);
+    out
+}
+
+fn write_exposure(out: &mut String, e: &Exposure) -> std::fmt::Result {
+    writeln!(out, "PLUMBLINE exposure over a record")?;
+    let clock = e
+        .clock_start
+        .as_deref()
+        .map_or(String::new(), |c| format!(", started at {c}"));
+    writeln!(
+        out,
+        "Window: {} to {} elapsed{clock}",
+        elapsed_words(e.from_s),
+        elapsed_words(e.to_s)
+    )?;
+    writeln!(out, "Rules: {}", e.rules)?;
+    writeln!(out, "Definitions: {}", e.definitions)?;
+    writeln!(out)?;
+    for t in &e.targets {
+        let mark = if t.outside_min > 0.0 { "[OUT]" } else { "[ok]" };
+        writeln!(out, "  {mark} {}", t.target)?;
+        writeln!(out, "        {}", t.words)?;
+    }
+    for n in &e.not_analysed {
+        writeln!(out, "  [--] {}: {}", n.target, n.why)?;
+    }
+    writeln!(out)?;
+    writeln!(out, "{}", plumbline_core::report::CAUTION)
 }

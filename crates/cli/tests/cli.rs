@@ -114,7 +114,12 @@ fn a_missing_file_exits_2() {
 
 #[test]
 fn every_command_has_help() {
-    for args in [&["--help"][..], &["check", "--help"], &["demo", "--help"]] {
+    for args in [
+        &["--help"][..],
+        &["check", "--help"],
+        &["demo", "--help"],
+        &["record", "--help"],
+    ] {
         let out = plumbline(args);
         assert!(out.status.success(), "{args:?}");
         assert!(text(&out.stdout).contains("Usage"), "{args:?}");
@@ -125,4 +130,97 @@ fn every_command_has_help() {
 fn usage_errors_do_not_pass_as_checks() {
     let out = plumbline(&["check"]);
     assert!(!out.status.success());
+}
+
+#[test]
+fn record_prints_exposure_and_json_and_series() {
+    let args = [
+        "record",
+        "examples/beach-chair-record.csv",
+        "--case",
+        "examples/beach-chair.json",
+    ];
+    let table = plumbline(&args);
+    assert!(table.status.success(), "{}", text(&table.stderr));
+    let stdout = text(&table.stdout);
+    assert!(stdout.contains("CPP below 60 mmHg"), "{stdout}");
+    assert!(stdout.contains("ASSUMED ICP"));
+
+    let json = plumbline(&[&args[..], &["--json"]].concat());
+    let exposure: serde_json::Value = serde_json::from_slice(&json.stdout).unwrap();
+    let targets = exposure["targets"].as_array().unwrap();
+    assert!(!targets.is_empty());
+    for t in targets {
+        assert!(t["outside_min"].as_f64().unwrap() <= t["observed_min"].as_f64().unwrap());
+    }
+
+    let series = plumbline(&[&args[..], &["--series"]].concat());
+    let csv = text(&series.stdout);
+    assert!(csv.starts_with("elapsed_s,brain.perfusion [mmHg]"), "{csv}");
+    assert!(csv.lines().count() > 1000);
+}
+
+#[test]
+fn record_rules_come_from_the_command_line() {
+    let base = [
+        "record",
+        "examples/beach-chair-record.csv",
+        "--case",
+        "examples/beach-chair.json",
+        "--json",
+    ];
+    let all = plumbline(&base);
+    let strict = plumbline(&[&base[..], &["--min-episode-s", "600"]].concat());
+    let all: serde_json::Value = serde_json::from_slice(&all.stdout).unwrap();
+    let strict: serde_json::Value = serde_json::from_slice(&strict.stdout).unwrap();
+    let outside = |v: &serde_json::Value| {
+        v["targets"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .map(|t| t["outside_min"].as_f64().unwrap())
+            .sum::<f64>()
+    };
+    assert!(outside(&strict) < outside(&all));
+    assert!(strict["rules"]
+        .as_str()
+        .unwrap()
+        .contains("shorter than 10 min ignored"));
+}
+
+#[test]
+fn a_bad_record_exits_2_with_every_line_and_column() {
+    let out = plumbline(&[
+        "record",
+        "tests/fixtures/bad-record.csv",
+        "--case",
+        "examples/beach-chair.json",
+    ]);
+    assert_eq!(out.status.code(), Some(2));
+    let err = text(&out.stderr);
+    for where_ in ["line 1, column 3", "line 3, column 2", "line 4, column 2"] {
+        assert!(err.contains(where_), "missing {where_} in\n{err}");
+    }
+}
+
+#[test]
+fn record_can_write_the_case_with_its_record() {
+    let dir = std::env::temp_dir().join(format!("plumbline-cli-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let out_case = dir.join("with-record.json");
+    let out = plumbline(&[
+        "record",
+        "examples/beach-chair-record.csv",
+        "--case",
+        "examples/beach-chair.json",
+        "--write-case",
+        out_case.to_str().unwrap(),
+    ]);
+    assert!(out.status.success());
+    let again = plumbline(&["check", out_case.to_str().unwrap(), "--json"]);
+    assert!(again.status.success(), "{}", text(&again.stderr));
+    let written: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(&out_case).unwrap()).unwrap();
+    assert_eq!(written["timeline"]["channels"].as_array().unwrap().len(), 3);
+    std::fs::remove_dir_all(&dir).ok();
 }

@@ -16,15 +16,16 @@ use crate::landmark::Landmark;
 use crate::organ::Organ;
 use crate::reading::{Level, MeanRule, Method, Quantity};
 use crate::target::TargetSpec;
-use crate::units::{DensityEntry, LengthEntry, PressureEntry};
+use crate::units::{DensityEntry, LengthEntry, PressureEntry, PressureUnit};
 
 /// The value of the document's `format` field.
 pub const FORMAT: &str = "plumbline-case";
 /// The newest document version this build reads and writes.
 pub const VERSION: u32 = 1;
-/// The largest document accepted, in bytes. A case is a few kilobytes; the
-/// cap keeps a hostile link or file from costing memory.
-pub const MAX_BYTES: usize = 256 * 1024;
+/// The largest document accepted, in bytes. A case is a few kilobytes, an
+/// eight-hour record at 1 Hz a few megabytes; the cap keeps a hostile file
+/// from costing memory.
+pub const MAX_BYTES: usize = 16 * 1024 * 1024;
 
 /// One check, as written by the clinician.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -76,6 +77,75 @@ pub struct Case {
     /// The patient's baseline arterial pressure, for relative targets.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub baseline: Option<BaselineSpec>,
+    /// Readings and position changes over time, for exposure analysis.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub timeline: Option<TimelineSpec>,
+}
+
+/// A record over time: samples per channel and position changes. Times are
+/// seconds from the start of the record; no date is kept.
+#[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct TimelineSpec {
+    /// Clock time of the record's start, `"HH:MM:SS"`, for showing clock
+    /// times; optional.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub clock_start: Option<String>,
+    /// How gaps and short episodes are treated.
+    #[serde(default, skip_serializing_if = "RulesSpec::is_empty")]
+    pub rules: RulesSpec,
+    /// Position changes after the start; the case's `position` holds from 0.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub positions: Vec<PositionChangeSpec>,
+    /// Samples, one entry per channel.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub channels: Vec<ChannelSpec>,
+}
+
+/// Exposure rules; each left out takes its default.
+#[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RulesSpec {
+    /// How long an intermittent reading (a cuff) is held, seconds.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub hold_max_s: Option<f64>,
+    /// The longest gap continuous samples are interpolated across, seconds.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub gap_max_s: Option<f64>,
+    /// Episodes outside a target shorter than this are ignored, seconds.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub min_episode_s: Option<f64>,
+}
+
+impl RulesSpec {
+    fn is_empty(&self) -> bool {
+        self.hold_max_s.is_none() && self.gap_max_s.is_none() && self.min_episode_s.is_none()
+    }
+}
+
+/// A position change in a record.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct PositionChangeSpec {
+    /// When, seconds from the start.
+    pub at_s: f64,
+    /// The new position.
+    pub position: PositionSpec,
+}
+
+/// The samples of one channel: `"radial line.mean"` (an arterial source's
+/// id and component) or a reading's name (`"icp"`).
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct ChannelSpec {
+    /// Which reading.
+    pub channel: String,
+    /// The unit of `values`.
+    pub unit: PressureUnit,
+    /// Sample times, seconds from the start, increasing.
+    pub t_s: Vec<f64>,
+    /// Sample values, one per time.
+    pub values: Vec<f64>,
 }
 
 /// The patient's size.
@@ -266,6 +336,7 @@ impl Case {
             organ_levels: BTreeMap::new(),
             targets: None,
             baseline: None,
+            timeline: None,
         }
     }
 

@@ -266,7 +266,7 @@ fn metric_report(
 
 /// A target's threshold in mmHg, resolving relative targets through the
 /// baseline at the organ's level.
-fn threshold(
+pub(crate) fn threshold(
     ctx: &Ctx<'_>,
     level: Landmark,
     target: &Target,

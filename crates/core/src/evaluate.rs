@@ -67,6 +67,81 @@ pub struct Outflow {
     pub candidates: Vec<(Quantity, Pressure)>,
 }
 
+/// An input reading a metric depends on.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub enum Input {
+    /// A component of an arterial source, by index.
+    Arterial(usize, Component),
+    /// A non-arterial reading.
+    Reading(Quantity),
+}
+
+/// One input as it enters a metric: `scale × reading + offset`, where the
+/// offset is the fluid column between the reading's level and the organ's.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Term {
+    /// Which reading.
+    pub input: Input,
+    /// Its multiplier (2/3 in the population formula, else 1).
+    pub scale: f64,
+    /// The height correction added to it.
+    pub offset: Pressure,
+}
+
+impl Term {
+    fn plain(input: Input, offset: Pressure) -> Self {
+        Term {
+            input,
+            scale: 1.0,
+            offset,
+        }
+    }
+
+    fn at(self, reading: Pressure) -> Pressure {
+        reading * self.scale + self.offset
+    }
+}
+
+/// A metric as a formula of its inputs for a fixed position:
+/// `lead − factor × max(subtract...)`. Produced by the same code that
+/// computes the value, so a long record can be evaluated sample by sample
+/// without placing the body or writing the derivation again.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Form {
+    /// The term the others are taken from (the inflow, or the reading itself).
+    pub lead: Term,
+    /// The candidates for the back pressure; the highest is subtracted.
+    pub subtract: Vec<Term>,
+    /// How many times the back pressure is subtracted (2 for the filtration
+    /// gradient).
+    pub factor: f64,
+}
+
+impl Form {
+    /// The metric for the given readings; `None` if a reading it needs is
+    /// missing. Of optional back-pressure candidates, those present count.
+    pub fn eval(&self, reading: impl Fn(Input) -> Option<Pressure>) -> Option<Pressure> {
+        let lead = self.lead.at(reading(self.lead.input)?);
+        let mut back: Option<Pressure> = None;
+        for term in &self.subtract {
+            let v = term.at(reading(term.input)?);
+            back = Some(match back {
+                Some(b) if b >= v => b,
+                _ => v,
+            });
+        }
+        Some(match back {
+            Some(b) => lead - b * self.factor,
+            None => lead,
+        })
+    }
+
+    /// Every input the metric reads.
+    pub fn inputs(&self) -> impl Iterator<Item = Input> + '_ {
+        std::iter::once(self.lead.input).chain(self.subtract.iter().map(|t| t.input))
+    }
+}
+
 /// A computed metric.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Value {
@@ -80,6 +155,8 @@ pub struct Value {
     pub outflow: Option<Outflow>,
     /// Assumed values it used.
     pub assumed: Vec<Quantity>,
+    /// The metric as a formula of its inputs, for this position.
+    pub form: Form,
 }
 
 /// Why a metric could not be computed: the things to add, in words.
@@ -146,7 +223,7 @@ impl<'a> Ctx<'a> {
         fluid: Fluid,
         from: Length,
         to: (Landmark, Length),
-    ) -> Pressure {
+    ) -> (Pressure, Pressure) {
         let dh = to.1 - from;
         let shift = column(self.scene.density(fluid), dh);
         let result = value - shift;
@@ -168,7 +245,7 @@ impl<'a> Ctx<'a> {
             what,
             value: result,
         });
-        result
+        (result, -shift)
     }
 
     fn source(&self, requested: Option<usize>) -> Result<usize, Missing> {
@@ -185,7 +262,7 @@ impl<'a> Ctx<'a> {
         i: usize,
         component: Component,
         level: (Landmark, Length),
-    ) -> Result<Pressure, Missing> {
+    ) -> Result<(Pressure, Term), Missing> {
         let a = self
             .scene
             .arterial
@@ -211,7 +288,8 @@ impl<'a> Ctx<'a> {
             ),
             value,
         });
-        Ok(self.carry(steps, component.label(), value, Fluid::Blood, from, level))
+        let (at, offset) = self.carry(steps, component.label(), value, Fluid::Blood, from, level);
+        Ok((at, Term::plain(Input::Arterial(i, component), offset)))
     }
 
     /// A reading carried to the organ's level; `Ok(None)` when absent.
@@ -221,7 +299,7 @@ impl<'a> Ctx<'a> {
         assumed: &mut Vec<Quantity>,
         quantity: Quantity,
         level: (Landmark, Length),
-    ) -> Result<Option<Pressure>, Missing> {
+    ) -> Result<Option<(Pressure, Term)>, Missing> {
         let Some(r) = self.scene.readings.get(&quantity) else {
             return Ok(None);
         };
@@ -243,16 +321,15 @@ impl<'a> Ctx<'a> {
             ),
             value: r.value,
         });
+        let input = Input::Reading(quantity);
         match quantity.fluid() {
-            Some(fluid) => Ok(Some(self.carry(
-                steps,
-                quantity.label(),
-                r.value,
-                fluid,
-                from,
-                level,
-            ))),
-            None if r.place == Place::At(level.0) => Ok(Some(r.value)),
+            Some(fluid) => {
+                let (at, offset) = self.carry(steps, quantity.label(), r.value, fluid, from, level);
+                Ok(Some((at, Term::plain(input, offset))))
+            }
+            None if r.place == Place::At(level.0) => {
+                Ok(Some((r.value, Term::plain(input, Pressure::default()))))
+            }
             None => Err(Missing::one(format!(
                 "{} taken at the {}",
                 quantity.label(),
@@ -267,7 +344,7 @@ impl<'a> Ctx<'a> {
         assumed: &mut Vec<Quantity>,
         quantity: Quantity,
         level: (Landmark, Length),
-    ) -> Result<Pressure, Missing> {
+    ) -> Result<(Pressure, Term), Missing> {
         self.reading_at(steps, assumed, quantity, level)?
             .ok_or_else(|| Missing::one(missing_reading(quantity)))
     }
@@ -341,40 +418,41 @@ pub fn metric(
     let mut steps = Vec::new();
     let mut assumed = Vec::new();
     let label = organ.metric_label(metric);
-    let finish = |value: Pressure,
-                  steps: Vec<Step>,
-                  driver: Option<Driver>,
-                  outflow: Option<Outflow>,
-                  assumed: Vec<Quantity>| Value {
-        value,
-        steps,
-        driver,
-        outflow,
-        assumed,
+    let single = |lead: Term| Form {
+        lead,
+        subtract: Vec::new(),
+        factor: 1.0,
     };
 
     match (organ, metric) {
         (_, Metric::Inflow) => {
             let i = ctx.source(source)?;
-            let value = ctx.arterial_at(&mut steps, i, Component::Mean, level)?;
-            Ok(finish(
+            let (value, lead) = ctx.arterial_at(&mut steps, i, Component::Mean, level)?;
+            Ok(Value {
                 value,
                 steps,
-                Some(mean_driver(i, 1.0)),
-                None,
+                driver: Some(mean_driver(i, 1.0)),
+                outflow: None,
                 assumed,
-            ))
+                form: single(lead),
+            })
         }
         (Organ::Brain | Organ::Cord | Organ::Abdomen, Metric::Surrounding) => {
             let q = surrounding_of(organ);
-            let value = ctx.required(&mut steps, &mut assumed, q, level)?;
-            Ok(finish(value, steps, None, None, assumed))
+            let (value, lead) = ctx.required(&mut steps, &mut assumed, q, level)?;
+            Ok(Value {
+                value,
+                steps,
+                driver: None,
+                outflow: None,
+                assumed,
+                form: single(lead),
+            })
         }
         (Organ::Eye, Metric::PopulationMean | Metric::PopulationDiastolic) => {
             population(ctx, metric, source, level, steps, assumed)
         }
         (Organ::HeartCpr, Metric::Perfusion) => {
-            let mut missing = Vec::new();
             let aortic = ctx.required(
                 &mut steps,
                 &mut assumed,
@@ -387,15 +465,7 @@ pub fn metric(
                 Quantity::CprRightAtrialRelaxation,
                 level,
             );
-            let (aortic, atrial) = match (aortic, atrial) {
-                (Ok(a), Ok(r)) => (a, r),
-                (a, r) => {
-                    for m in [a.err(), r.err()].into_iter().flatten() {
-                        missing.extend(m.0);
-                    }
-                    return Err(Missing(missing));
-                }
-            };
+            let ((aortic, lead), (atrial, back)) = both(aortic, atrial)?;
             let value = aortic - atrial;
             steps.push(Step {
                 what: format!("{label} = {} − {} = {}", mm(aortic), mm(atrial), mm(value)),
@@ -405,25 +475,27 @@ pub fn metric(
                 quantity: Quantity::CprAorticRelaxation,
                 slope: 1.0,
             };
-            Ok(finish(value, steps, Some(driver), None, assumed))
+            Ok(Value {
+                value,
+                steps,
+                driver: Some(driver),
+                outflow: None,
+                assumed,
+                form: Form {
+                    lead,
+                    subtract: vec![back],
+                    factor: 1.0,
+                },
+            })
         }
         (_, Metric::Perfusion | Metric::FiltrationGradient) => {
             let (component, outflows, factor) = difference_terms(organ, metric);
-            let i = ctx.source(source);
-            let inflow = i
-                .clone()
-                .and_then(|i| ctx.arterial_at(&mut steps, i, component, level));
+            let inflow = ctx.source(source).and_then(|i| {
+                ctx.arterial_at(&mut steps, i, component, level)
+                    .map(|v| (i, v))
+            });
             let outflow = waterfall(ctx, &mut steps, &mut assumed, outflows, level);
-            let (i, inflow, outflow) = match (i, inflow, outflow) {
-                (Ok(i), Ok(inflow), Ok(outflow)) => (i, inflow, outflow),
-                (_, inflow, outflow) => {
-                    let mut missing = Vec::new();
-                    for m in [inflow.err(), outflow.err()].into_iter().flatten() {
-                        missing.extend(m.0);
-                    }
-                    return Err(Missing(missing));
-                }
-            };
+            let ((i, (inflow, lead)), (outflow, back)) = both(inflow, outflow)?;
             let value = inflow - outflow.value * factor;
             let times = if factor == 1.0 {
                 String::new()
@@ -444,11 +516,36 @@ pub fn metric(
                 component,
                 slope: 1.0,
             };
-            Ok(finish(value, steps, Some(driver), Some(outflow), assumed))
+            Ok(Value {
+                value,
+                steps,
+                driver: Some(driver),
+                outflow: Some(outflow),
+                assumed,
+                form: Form {
+                    lead,
+                    subtract: back,
+                    factor,
+                },
+            })
         }
         (_, Metric::Surrounding | Metric::PopulationMean | Metric::PopulationDiastolic) => {
             Err(Missing::one(format!("{} has no {metric}", organ.label())))
         }
+    }
+}
+
+/// Both results, or everything either is missing.
+fn both<A, B>(a: Result<A, Missing>, b: Result<B, Missing>) -> Result<(A, B), Missing> {
+    match (a, b) {
+        (Ok(a), Ok(b)) => Ok((a, b)),
+        (a, b) => Err(Missing(
+            [a.err(), b.err()]
+                .into_iter()
+                .flatten()
+                .flat_map(|m| m.0)
+                .collect(),
+        )),
     }
 }
 
@@ -496,12 +593,16 @@ fn waterfall(
     assumed: &mut Vec<Quantity>,
     candidates: &[Candidate],
     level: (Landmark, Length),
-) -> Result<Outflow, Missing> {
+) -> Result<(Outflow, Vec<Term>), Missing> {
     let mut found = Vec::new();
+    let mut terms = Vec::new();
     let mut missing = Vec::new();
     for (q, required) in candidates {
         match ctx.reading_at(steps, assumed, *q, level) {
-            Ok(Some(p)) => found.push((*q, p)),
+            Ok(Some((p, term))) => {
+                found.push((*q, p));
+                terms.push(term);
+            }
             Ok(None) if *required => missing.push(missing_reading(*q)),
             Ok(None) => {}
             Err(m) => missing.extend(m.0),
@@ -549,11 +650,14 @@ fn waterfall(
             value,
         });
     }
-    Ok(Outflow {
-        value,
-        winner,
-        candidates: found,
-    })
+    Ok((
+        Outflow {
+            value,
+            winner,
+            candidates: found,
+        },
+        terms,
+    ))
 }
 
 /// The population formulas, applied to an upper-arm reading as measured in
@@ -594,7 +698,7 @@ fn population(
         missing.push("an arterial reading taken on an upper arm".to_owned());
     }
     let iop = ctx.required(&mut steps, &mut assumed, Quantity::Iop, level);
-    let (Some(i), Ok(iop), true) = (arm, iop.clone(), missing.is_empty()) else {
+    let (Some(i), Ok((iop, back)), true) = (arm, iop.clone(), missing.is_empty()) else {
         if let Err(m) = iop {
             missing.extend(m.0);
         }
@@ -646,6 +750,15 @@ fn population(
         driver: Some(driver),
         outflow: None,
         assumed,
+        form: Form {
+            lead: Term {
+                input: Input::Arterial(i, component),
+                scale: factor,
+                offset: Pressure::default(),
+            },
+            subtract: vec![back],
+            factor: 1.0,
+        },
     })
 }
 
@@ -691,4 +804,53 @@ pub fn baseline_inflow(ctx: &Ctx<'_>, landmark: Landmark) -> Result<Step, Missin
         ),
         value,
     })
+}
+
+#[cfg(test)]
+mod tests {
+    #![allow(clippy::unwrap_used)]
+    use super::*;
+    use crate::case::Case;
+
+    /// The form of every metric, fed the scene's own readings, gives the
+    /// value computed step by step.
+    #[test]
+    fn forms_reproduce_their_values() {
+        let scenes = [
+            crate::demo::CASE_JSON,
+            r#"{"format": "plumbline-case", "version": 1,
+                "patient": {"height": "170 cm"}, "position": {"posture": "sitting"},
+                "arterial": [{"id": "arm", "method": "cuff", "level": "upper_arm_left",
+                              "systolic": "120 mmHg", "diastolic": "70 mmHg"}],
+                "readings": {"icp": {"value": "15 cmH2O", "method": "drain_scale", "level": "tragus"},
+                             "cvp": {"value": "9 mmHg", "method": "transducer", "level": "heart"},
+                             "iap": {"value": "13 mmHg", "method": "transducer", "level": "iliac_crest"},
+                             "iop": {"value": "17 mmHg", "method": "tonometer", "level": "eye_right"}}}"#,
+        ];
+        let mut checked = 0;
+        for text in scenes {
+            let scene = Scene::from_case(&Case::from_json(text).unwrap()).unwrap();
+            let ctx = Ctx::new(&scene);
+            let reading = |input: Input| match input {
+                Input::Arterial(i, c) => scene.arterial.get(i)?.component(c),
+                Input::Reading(q) => scene.readings.get(&q).map(|r| r.value),
+            };
+            for organ in Organ::ALL {
+                for m in organ.metrics() {
+                    let Ok(v) = metric(&ctx, organ, *m, None) else {
+                        continue;
+                    };
+                    let again = v.form.eval(reading).unwrap();
+                    assert!(
+                        (to_mmhg(again) - to_mmhg(v.value)).abs() < 1e-9,
+                        "{organ} {m}: {} vs {}",
+                        to_mmhg(again),
+                        to_mmhg(v.value)
+                    );
+                    checked += 1;
+                }
+            }
+        }
+        assert!(checked > 12, "only {checked} metrics checked");
+    }
 }

@@ -21,6 +21,7 @@ mod keyed;
 pub mod landmark;
 pub mod organ;
 pub mod reading;
+pub mod record;
 pub mod report;
 pub mod scene;
 pub mod target;

@@ -169,6 +169,32 @@ impl Quantity {
         }
     }
 
+    /// The landmark this pressure is conventionally referenced to: the
+    /// tragus for ICP, the iliac crest (mid-axillary line) for bladder IAP,
+    /// the heart reference for the others; `None` for pressures that exist
+    /// only in the tissue where they are taken (IOP, compartment), whose
+    /// level must be given.
+    ///
+    /// # Example
+    /// ```
+    /// use plumbline_core::landmark::Landmark;
+    /// use plumbline_core::reading::Quantity;
+    /// assert_eq!(Quantity::Icp.usual_level(), Some(Landmark::Tragus));
+    /// assert_eq!(Quantity::Iop.usual_level(), None);
+    /// ```
+    pub fn usual_level(self) -> Option<Landmark> {
+        match self {
+            Quantity::Icp => Some(Landmark::Tragus),
+            Quantity::Iap => Some(Landmark::IliacCrest),
+            Quantity::Iop | Quantity::Compartment => None,
+            Quantity::Cvp
+            | Quantity::Csf
+            | Quantity::Lvedp
+            | Quantity::CprAorticRelaxation
+            | Quantity::CprRightAtrialRelaxation => Some(Landmark::Heart),
+        }
+    }
+
     /// The accepted range in mmHg: wide enough for any living patient,
     /// narrow enough to catch a slip of the finger or the unit.
     pub fn range_mmhg(self) -> (f64, f64) {
@@ -377,6 +403,18 @@ mod tests {
     fn transducer_accuracy_grows_with_the_reading() {
         assert_eq!(to_mmhg(Method::Transducer.accuracy(mmhg(50.0))), 4.0);
         assert!((to_mmhg(Method::Transducer.accuracy(mmhg(200.0))) - 8.0).abs() < 1e-9);
+    }
+
+    #[test]
+    fn usual_levels_follow_the_trade_conventions() {
+        let check = |q: Quantity, expected: Option<Landmark>| assert_eq!(q.usual_level(), expected);
+        check(Quantity::Icp, Some(Landmark::Tragus));
+        check(Quantity::Iap, Some(Landmark::IliacCrest));
+        check(Quantity::Cvp, Some(Landmark::Heart));
+        check(Quantity::Csf, Some(Landmark::Heart));
+        check(Quantity::Lvedp, Some(Landmark::Heart));
+        check(Quantity::Iop, None);
+        check(Quantity::Compartment, None);
     }
 
     #[test]
