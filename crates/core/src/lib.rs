@@ -24,5 +24,6 @@ pub mod reading;
 pub mod record;
 pub mod report;
 pub mod scene;
+pub mod share;
 pub mod target;
 pub mod units;
