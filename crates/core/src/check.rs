@@ -300,6 +300,16 @@ fn whole(v: f64) -> String {
     format!("{:.0}", v.abs().round())
 }
 
+/// A shortfall in whole mmHg, never "0": a value just outside a bound is
+/// still outside it.
+fn shortfall(v: f64) -> String {
+    if v.abs() < 0.5 {
+        "less than 1".to_owned()
+    } else {
+        whole(v)
+    }
+}
+
 fn target_report(
     ctx: &Ctx<'_>,
     organ: Organ,
@@ -340,8 +350,8 @@ fn target_report(
             whole(margin),
             if at_least { "above" } else { "below" }
         ),
-        Status::Below => format!("BELOW target by {} mmHg", whole(margin)),
-        Status::Above => format!("ABOVE limit by {} mmHg", whole(margin)),
+        Status::Below => format!("BELOW target by {} mmHg", shortfall(margin)),
+        Status::Above => format!("ABOVE limit by {} mmHg", shortfall(margin)),
     };
     TargetReport {
         target: target.describe(),
@@ -423,6 +433,13 @@ fn safe_words(need: Pressure, at_least: bool, unit: PressureUnit) -> String {
     let decimals = if unit == PressureUnit::KPa { 1 } else { 0 };
     let scale = 10f64.powi(decimals);
     let v = unit.value(need) * scale;
+    // Unit conversion leaves noise (17 mmHg comes back as 17.000000000000004);
+    // rounding that up would ask for a whole step more than is needed.
+    let v = if (v - v.round()).abs() < 1e-9 {
+        v.round()
+    } else {
+        v
+    };
     let rounded = if at_least { v.ceil() } else { v.floor() } / scale;
     let word = if at_least { "at least" } else { "at most" };
     format!("{word} {rounded:.prec$} {unit}", prec = decimals as usize)
@@ -669,4 +686,46 @@ fn sweeps(ctx: &Ctx<'_>) -> Vec<Sweep> {
         }
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::units::mmhg;
+
+    #[test]
+    fn safe_rounding_ignores_conversion_noise() {
+        // Aortic relaxation 20, right atrium 2, floor 15: the need 20 + (15 −
+        // 18) comes back from pascals a few ulps above 17: still "at least 17".
+        let need = mmhg(20.0) + (mmhg(15.0) - (mmhg(20.0) - mmhg(2.0)));
+        assert!(
+            crate::units::to_mmhg(need) > 17.0,
+            "the noise this guards against"
+        );
+        assert_eq!(
+            safe_words(need, true, PressureUnit::MmHg),
+            "at least 17 mmHg"
+        );
+        assert_eq!(
+            safe_words(mmhg(17.2), true, PressureUnit::MmHg),
+            "at least 18 mmHg"
+        );
+        assert_eq!(
+            safe_words(mmhg(17.8), false, PressureUnit::MmHg),
+            "at most 17 mmHg"
+        );
+        assert_eq!(
+            safe_words(mmhg(22.0), false, PressureUnit::MmHg),
+            "at most 22 mmHg"
+        );
+        let kpa = PressureUnit::KPa.pressure(8.0);
+        assert_eq!(safe_words(kpa, true, PressureUnit::KPa), "at least 8.0 kPa");
+    }
+
+    #[test]
+    fn a_shortfall_under_half_a_mmhg_is_not_called_zero() {
+        assert_eq!(shortfall(-0.3), "less than 1");
+        assert_eq!(shortfall(-0.6), "1");
+        assert_eq!(shortfall(-12.4), "12");
+    }
 }

@@ -317,14 +317,20 @@ pub struct Verdict {
     pub margin: Pressure,
 }
 
-/// The verdict of `value` against a lower (`at_least`) or upper bound.
+/// Margins within this of zero count as on the bound, which meets it. Far
+/// below any pressure resolution, it absorbs the rounding of unit
+/// conversions: 82 mmHg − 22 mmHg through pascals is 59.99999999999999.
+pub const ON_THE_BOUND_MMHG: f64 = 1e-9;
+
+/// The verdict of `value` against a lower (`at_least`) or upper bound. A
+/// value on the bound meets it.
 pub fn judge(value: Pressure, threshold: Pressure, at_least: bool) -> Verdict {
     let margin = if at_least {
         value - threshold
     } else {
         threshold - value
     };
-    let status = if to_mmhg(margin) >= 0.0 {
+    let status = if to_mmhg(margin) >= -ON_THE_BOUND_MMHG {
         Status::Meets
     } else if at_least {
         Status::Below
@@ -427,5 +433,20 @@ mod tests {
         assert_eq!(v.status, Status::Above);
         let v = judge(mmhg(60.0), mmhg(60.0), true);
         assert_eq!(v.status, Status::Meets);
+    }
+
+    #[test]
+    fn a_difference_that_lands_on_the_bound_meets_it() {
+        // 82 − 22 and 27 − 12 come back from pascals a few ulps short of 60
+        // and 15; a CPP of exactly 60 is not below a floor of 60.
+        let cpp = mmhg(82.0) - mmhg(22.0);
+        assert!(to_mmhg(cpp) < 60.0, "the rounding this guards against");
+        assert_eq!(judge(cpp, mmhg(60.0), true).status, Status::Meets);
+        let cpr = mmhg(27.0) - mmhg(12.0);
+        assert_eq!(judge(cpr, mmhg(15.0), true).status, Status::Meets);
+        let csf = mmhg(22.0) - mmhg(12.0);
+        assert_eq!(judge(csf, mmhg(10.0), false).status, Status::Meets);
+        assert_eq!(judge(mmhg(59.999), mmhg(60.0), true).status, Status::Below);
+        assert_eq!(judge(mmhg(10.001), mmhg(10.0), false).status, Status::Above);
     }
 }

@@ -561,6 +561,40 @@ mod tests {
         assert_eq!(spec, again);
     }
 
+    proptest::proptest! {
+        #![proptest_config(proptest::prelude::ProptestConfig::with_cases(3000))]
+
+        /// Any text is read or refused with messages, never a panic.
+        #[test]
+        fn any_text_imports_or_errs(text in "(?s).{0,600}") {
+            if let Err(errors) = import(&text, &scene()) {
+                proptest::prop_assert!(errors.iter().all(|e| !e.to_string().is_empty()));
+            }
+        }
+
+        /// A valid file with bytes changed anywhere never panics either.
+        #[test]
+        fn mutated_files_never_panic(
+            edits in proptest::collection::vec((0usize..400, proptest::prelude::any::<char>()), 1..12)
+        ) {
+            let mut chars: Vec<char> = "time,channel,value\n08:00:00,radial line.mean,74 mmHg\n\
+                 08:00:01,radial line.mean,73,5 mmHg\n23:59:59,icp,14 cmH2O\n\
+                 2026-03-04T08:00:00Z,left arm cuff.systolic,120 mmHg\n"
+                .chars()
+                .collect();
+            for (at, c) in edits {
+                let len = chars.len();
+                if let Some(x) = chars.get_mut(at % len) {
+                    *x = c;
+                }
+            }
+            let text: String = chars.into_iter().collect();
+            let _ = import(&text, &scene());
+            let wide = text.replace("time,channel,value", "elapsed_s,radial line.mean [mmHg]");
+            let _ = import(&wide, &scene());
+        }
+    }
+
     #[test]
     fn empty_and_headless_files() {
         assert!(import("", &scene()).is_err());
