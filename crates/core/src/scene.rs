@@ -636,10 +636,32 @@ impl Scene {
             ));
         }
         let mut body = body_height.map(Body::of_height);
+        if !case.segments.is_empty() && case.patient.height.is_none() {
+            c.error(Error::missing(
+                "patient.height",
+                "measured segments refine the position's estimate, which needs the patient's \
+                 standing height",
+            ));
+        }
         for (segment, entry) in &case.segments {
             let field = format!("segments.{}", segment.key());
             if let (Some(len), Some(body)) = (c.length(&field, *entry, (5.0, 100.0)), body.as_mut())
             {
+                let expected = segment.fraction() * to_cm(body.height);
+                let ratio = to_cm(len) / expected;
+                if !(0.7..=1.3).contains(&ratio) {
+                    c.warn(
+                        field.clone(),
+                        format!(
+                            "{} of {:.0} cm is {:.0}% of what the body height suggests ({:.0} cm): \
+                             check the measurement",
+                            segment.label(),
+                            to_cm(len),
+                            ratio * 100.0,
+                            expected
+                        ),
+                    );
+                }
                 body.measured.insert(*segment, len);
             }
         }
@@ -1085,5 +1107,29 @@ fn fluid_key(fluid: Fluid) -> &'static str {
         Fluid::Blood => "blood",
         Fluid::Csf => "csf",
         Fluid::Saline => "saline",
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    #![allow(clippy::unwrap_used)]
+    use super::*;
+
+    fn scene(body: &str) -> Result<Scene, Errors> {
+        let text = format!(r#"{{"format": "plumbline-case", "version": 1, {body}}}"#);
+        Scene::from_case(&Case::from_json(&text).unwrap())
+    }
+
+    #[test]
+    fn segments_need_a_body_and_implausible_ones_are_flagged() {
+        let errors = scene(r#""segments": {"upper_arm": "30 cm"}"#).unwrap_err();
+        assert!(errors.iter().any(|e| e.field == "patient.height"));
+        let s = scene(
+            r#""patient": {"height": "170 cm"}, "position": {"posture": "supine"},
+               "segments": {"upper_arm": "60 cm", "forearm": "25 cm"}"#,
+        )
+        .unwrap();
+        let flagged: Vec<&str> = s.warnings.iter().map(|w| w.field.as_str()).collect();
+        assert_eq!(flagged, vec!["segments.upper_arm"]);
     }
 }
