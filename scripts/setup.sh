@@ -1,14 +1,18 @@
 #!/usr/bin/env bash
 # Installs what a fresh Debian machine lacks to build and test Plumbline, and
-# skips whatever is already there at the right version.
+# skips whatever is already there at the right version. With --no-browser it
+# leaves out Chromium and ChromeDriver, which only the tests need.
 set -euo pipefail
 cd "$(dirname "$0")/.."
+
+browser=yes
+[ "${1:-}" = "--no-browser" ] && browser=no
 
 as_root() {
   if [ "$(id -u)" -eq 0 ]; then "$@"; else sudo "$@"; fi
 }
 
-if ! command -v chromium >/dev/null || ! command -v chromedriver >/dev/null; then
+if [ "$browser" = yes ] && { ! command -v chromium >/dev/null || ! command -v chromedriver >/dev/null; }; then
   echo "setup: installing Debian chromium and chromium-driver"
   as_root apt-get update -qq
   as_root apt-get install -y -qq --no-install-recommends chromium chromium-driver

@@ -488,12 +488,7 @@ impl Checker {
     ) -> Option<Reading> {
         let field = format!("assume.{quantity}");
         let p = self.pressure(&format!("{field}.value"), value, quantity.range_mmhg());
-        let default = match quantity {
-            Quantity::Icp => Some(Landmark::Tragus),
-            Quantity::Iap => Some(Landmark::IliacCrest),
-            Quantity::Iop | Quantity::Compartment => None,
-            _ => Some(Landmark::Heart),
-        };
+        let default = quantity.usual_level();
         let place = match (level, default) {
             (Some(level), _) => self.place(&format!("{field}.level"), level)?,
             (None, Some(landmark)) => Place::At(landmark),

@@ -242,6 +242,21 @@ impl fmt::Display for QuantityTextError {
 
 impl std::error::Error for QuantityTextError {}
 
+/// The error for unit text no unit matches: a mistyped number ("1o4 mmHg"
+/// leaves "o4 mmHg") when digits remain in it, else an unknown unit.
+fn unknown_unit(text: &str, unit_text: &str, expected: &'static str) -> QuantityTextError {
+    if unit_text.chars().any(|c| c.is_ascii_digit()) {
+        QuantityTextError::NotANumber {
+            text: text.trim().to_owned(),
+        }
+    } else {
+        QuantityTextError::UnknownUnit {
+            unit: unit_text.to_owned(),
+            expected,
+        }
+    }
+}
+
 /// Splits `"-12.5 cm"` into the number and the unit text. A decimal comma is
 /// accepted (`"12,5 mmHg"`) because bedside devices in many countries show one.
 fn split_number(text: &str) -> Result<(f64, &str), QuantityTextError> {
@@ -326,11 +341,8 @@ impl FromStr for PressureEntry {
                 expected: Self::EXPECTED,
             });
         }
-        let unit =
-            PressureUnit::parse(unit_text).ok_or_else(|| QuantityTextError::UnknownUnit {
-                unit: unit_text.to_owned(),
-                expected: Self::EXPECTED,
-            })?;
+        let unit = PressureUnit::parse(unit_text)
+            .ok_or_else(|| unknown_unit(text, unit_text, Self::EXPECTED))?;
         Ok(PressureEntry { amount, unit })
     }
 }
@@ -396,10 +408,8 @@ impl FromStr for LengthEntry {
                 expected: Self::EXPECTED,
             });
         }
-        let unit = LengthUnit::parse(unit_text).ok_or_else(|| QuantityTextError::UnknownUnit {
-            unit: unit_text.to_owned(),
-            expected: Self::EXPECTED,
-        })?;
+        let unit = LengthUnit::parse(unit_text)
+            .ok_or_else(|| unknown_unit(text, unit_text, Self::EXPECTED))?;
         Ok(LengthEntry { amount, unit })
     }
 }
@@ -434,12 +444,7 @@ impl FromStr for DensityEntry {
             }
             "kg/m3" | "kg/m³" => kg_per_m3(amount),
             "g/ml" | "g/cm3" | "g/cm³" => Density::new::<gram_per_cubic_centimeter>(amount),
-            _ => {
-                return Err(QuantityTextError::UnknownUnit {
-                    unit: unit_text.to_owned(),
-                    expected: EXPECTED,
-                })
-            }
+            _ => return Err(unknown_unit(text, unit_text, EXPECTED)),
         };
         Ok(DensityEntry(density))
     }
@@ -534,6 +539,10 @@ mod tests {
             Err(QuantityTextError::Empty)
         ));
         assert!("1e999 mmHg".parse::<PressureEntry>().is_err());
+        assert!(matches!(
+            "1o4 mmHg".parse::<PressureEntry>(),
+            Err(QuantityTextError::NotANumber { .. })
+        ));
         assert!("- mmHg".parse::<PressureEntry>().is_err());
     }
 

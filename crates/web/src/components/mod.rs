@@ -1,0 +1,31 @@
+//! Reusable parts of the screen, one component per file.
+
+pub mod assumed_card;
+pub mod case_json;
+pub mod caution;
+pub mod demo_notice;
+pub mod field_messages;
+pub mod figure_view;
+pub mod heights_table;
+pub mod length_input;
+pub mod level_picker;
+pub mod metric_details;
+pub mod not_checked;
+pub mod organ_card;
+pub mod patient_panel;
+pub mod plain_input;
+pub mod position_panel;
+pub mod pressure_input;
+pub mod problems;
+pub mod reading_card;
+pub mod readings_panel;
+pub mod readings_summary;
+pub mod source_card;
+pub mod sources_panel;
+pub mod status_badge;
+pub mod sweep_chart;
+pub mod target_row;
+pub mod targets_panel;
+pub mod theme_toggle;
+pub mod verdicts;
+pub mod warnings_panel;

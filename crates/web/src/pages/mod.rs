@@ -1,0 +1,3 @@
+//! Screens. Plumbline has one: the check.
+
+pub mod check_page;

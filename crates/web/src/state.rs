@@ -1,0 +1,387 @@
+//! The screen's one state and the reducer that changes it.
+//!
+//! Every change goes through [`State::reduce`]: the form takes the change,
+//! then the core checks the case again. A case that cannot be checked keeps
+//! the last good report on screen, marked stale, with every problem named.
+
+use std::collections::BTreeSet;
+use std::rc::Rc;
+
+use plumbline_core::case::Case;
+use plumbline_core::check;
+use plumbline_core::demo::CASE_JSON;
+use plumbline_core::error::{Error, ErrorKind, Errors, Warning};
+use plumbline_core::landmark::Landmark;
+use plumbline_core::reading::Level;
+use plumbline_core::report::Report;
+use plumbline_core::target::Status;
+use yew::{Reducible, UseReducerDispatcher, UseReducerHandle};
+
+use crate::form::{Edit, Form};
+
+/// What components hold to send actions to the state.
+pub type Dispatch = UseReducerDispatcher<State>;
+
+/// What panels hold: the state to read, and a way to change it.
+pub type Handle = UseReducerHandle<State>;
+
+/// The colour theme.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Theme {
+    /// As the device prefers.
+    Device,
+    /// Light.
+    Light,
+    /// Dark.
+    Dark,
+}
+
+impl Theme {
+    /// The value of the page's `data-theme` attribute.
+    pub fn key(self) -> &'static str {
+        match self {
+            Theme::Device => "device",
+            Theme::Light => "light",
+            Theme::Dark => "dark",
+        }
+    }
+
+    /// The theme named by `key`, the device's for anything else.
+    pub fn from_key(key: &str) -> Theme {
+        match key {
+            "light" => Theme::Light,
+            "dark" => Theme::Dark,
+            _ => Theme::Device,
+        }
+    }
+
+    /// The next theme the toggle offers.
+    pub fn next(self) -> Theme {
+        match self {
+            Theme::Device => Theme::Dark,
+            Theme::Dark => Theme::Light,
+            Theme::Light => Theme::Device,
+        }
+    }
+
+    /// The theme in words, for the toggle.
+    pub fn label(self) -> &'static str {
+        match self {
+            Theme::Device => "device",
+            Theme::Light => "light",
+            Theme::Dark => "dark",
+        }
+    }
+}
+
+/// A completed check: the report and the case document it came from.
+#[derive(Debug, PartialEq)]
+pub struct Checked {
+    /// The core's report.
+    pub report: Report,
+    /// The case checked.
+    pub case: Case,
+    /// The case as JSON, exactly as checked.
+    pub case_json: String,
+}
+
+/// Everything the screen shows.
+#[derive(Clone, Debug, PartialEq)]
+pub struct State {
+    /// The boxes as typed.
+    pub form: Form,
+    /// The last completed check.
+    pub checked: Option<Rc<Checked>>,
+    /// Why the current form could not be checked; empty when it was.
+    pub errors: Errors,
+    /// The colour theme.
+    pub theme: Theme,
+    /// The invented demo case, to say so while it is on screen.
+    demo: Option<Rc<Case>>,
+}
+
+/// Every change to the state.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Action {
+    /// A change to the form.
+    Edit(Edit),
+    /// The demo case, as on start.
+    LoadDemo,
+    /// Another colour theme.
+    Theme(Theme),
+}
+
+impl State {
+    /// The screen on start: the demo case, checked.
+    pub fn demo(theme: Theme) -> Self {
+        // The demo is the project's own document, so it is read without the
+        // path-tracking reader (`Case::from_json`), which would add a fifth
+        // to the download; its own tests check it against the core's reader.
+        let (form, errors, demo) = match serde_json::from_str::<Case>(CASE_JSON) {
+            Ok(case) => (
+                Form::from_case(&case),
+                Errors::default(),
+                Some(Rc::new(case)),
+            ),
+            Err(e) => (
+                Form::from_case(&Case::new()),
+                Errors::from(Error::new(
+                    "",
+                    ErrorKind::Shape {
+                        message: e.to_string(),
+                    },
+                )),
+                None,
+            ),
+        };
+        let mut state = State {
+            form,
+            checked: None,
+            errors,
+            theme,
+            demo,
+        };
+        if state.errors.is_empty() {
+            state.recheck();
+        }
+        state
+    }
+
+    /// Checks the form's case with the core.
+    fn recheck(&mut self) {
+        match self.form.to_case().and_then(|case| {
+            let report = check::check_case(&case)?;
+            Ok((case, report))
+        }) {
+            Ok((case, report)) => {
+                self.checked = Some(Rc::new(Checked {
+                    report,
+                    case_json: case.to_json(),
+                    case,
+                }));
+                self.errors = Errors::default();
+            }
+            Err(errors) => self.errors = errors,
+        }
+    }
+
+    /// One sentence for screen readers after every change: what the check
+    /// found, or why it could not run.
+    pub fn announcement(&self) -> String {
+        let n = self.errors.iter().count();
+        match (&self.checked, n) {
+            (Some(c), 0) => missed_words(c.missed()),
+            (Some(_), n) => format!(
+                "{}. The results shown are from the last good check.",
+                not_checked_words(n)
+            ),
+            (None, n) => format!("{}.", not_checked_words(n)),
+        }
+    }
+
+    /// Whether the results on screen are those of the invented demo case,
+    /// so nobody mistakes them for a patient's.
+    pub fn shows_demo(&self) -> bool {
+        match (&self.checked, &self.demo) {
+            (Some(c), Some(demo)) => c.case == **demo,
+            _ => false,
+        }
+    }
+
+    /// Whether the report on screen is older than the form.
+    pub fn is_stale(&self) -> bool {
+        !self.errors.is_empty()
+    }
+
+    /// The messages to show beside the box at `path`: its errors, then its
+    /// warnings from the last check.
+    pub fn messages(&self, path: &str) -> Vec<Message> {
+        let mut out: Vec<Message> = self
+            .errors
+            .for_field(path)
+            .map(|e: &Error| Message::Error(e.kind.to_string()))
+            .collect();
+        if let Some(checked) = &self.checked {
+            out.extend(
+                checked
+                    .report
+                    .warnings
+                    .iter()
+                    .filter(|w: &&Warning| w.field == path)
+                    .map(|w| Message::Warning(w.message.clone())),
+            );
+        }
+        out
+    }
+}
+
+/// "Not checked" with the number of entries to fix, in words.
+pub fn not_checked_words(n: usize) -> String {
+    if n == 1 {
+        "Not checked: 1 entry needs attention".to_owned()
+    } else {
+        format!("Not checked: {n} entries need attention")
+    }
+}
+
+/// The count of missed targets in words.
+pub fn missed_words(missed: usize) -> String {
+    match missed {
+        0 => "Every evaluated target is met.".to_owned(),
+        1 => "1 target is missed.".to_owned(),
+        n => format!("{n} targets are missed."),
+    }
+}
+
+/// A message shown beside a box.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Message {
+    /// The box cannot be used as it is.
+    Error(String),
+    /// Worth a second look.
+    Warning(String),
+}
+
+impl Checked {
+    /// The landmarks worth a label in the picture: the heart reference, each
+    /// checked organ's level, and every landmark a reading refers to.
+    pub fn key_landmarks(&self) -> BTreeSet<Landmark> {
+        let mut set = BTreeSet::from([Landmark::Heart]);
+        set.extend(self.report.organs.iter().map(|o| o.level));
+        let at = |level: &Level| match level {
+            Level::At(l) => Some(*l),
+            Level::Height(_) => None,
+        };
+        set.extend(self.case.arterial.iter().filter_map(|a| at(&a.level)));
+        set.extend(self.case.readings.values().filter_map(|r| at(&r.level)));
+        set.extend(self.case.assume.iter().filter_map(|(q, a)| match &a.level {
+            Some(level) => at(level),
+            None => q.usual_level(),
+        }));
+        set
+    }
+
+    /// How many evaluated targets the report misses.
+    pub fn missed(&self) -> usize {
+        self.report
+            .organs
+            .iter()
+            .flat_map(|o| o.metrics.iter())
+            .flat_map(|m| m.targets.iter())
+            .filter(|t| matches!(t.status, Some(Status::Below | Status::Above)))
+            .count()
+    }
+
+    /// The backrest angle of the checked position, from the core.
+    pub fn backrest_deg(&self) -> Option<f64> {
+        let position = self.case.position.as_ref()?.resolve("position").ok()?;
+        Some(position.angles.backrest_deg)
+    }
+}
+
+impl Reducible for State {
+    type Action = Action;
+
+    fn reduce(self: Rc<Self>, action: Action) -> Rc<Self> {
+        let mut next = (*self).clone();
+        match action {
+            Action::Edit(edit) => {
+                next.form.apply(edit);
+                next.recheck();
+            }
+            Action::LoadDemo => next = State::demo(self.theme),
+            Action::Theme(theme) => next.theme = theme,
+        }
+        Rc::new(next)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    #![allow(clippy::unwrap_used)]
+    use super::*;
+    use crate::form::{Slot, SourcePart};
+
+    fn reduce(state: State, action: Action) -> State {
+        Rc::try_unwrap(Rc::new(state).reduce(action)).unwrap()
+    }
+
+    #[test]
+    fn the_demo_reads_the_same_without_the_path_tracking_reader() {
+        let direct: Case = serde_json::from_str(CASE_JSON).unwrap();
+        assert_eq!(direct, Case::from_json(CASE_JSON).unwrap());
+    }
+
+    #[test]
+    fn the_demo_is_checked_on_start() {
+        let state = State::demo(Theme::Device);
+        assert!(!state.is_stale());
+        let report = &state.checked.as_ref().unwrap().report;
+        assert!(report.organs.iter().any(|o| o.label == "Brain"));
+    }
+
+    #[test]
+    fn the_demo_is_named_until_the_case_changes() {
+        let state = State::demo(Theme::Device);
+        assert!(state.shows_demo());
+        let slot = Slot::Source(0, SourcePart::Mean);
+        let state = reduce(state, Action::Edit(Edit::Text(slot, "80".into())));
+        assert!(!state.shows_demo());
+        let state = reduce(state, Action::Edit(Edit::Text(slot, "74".into())));
+        assert!(state.shows_demo());
+    }
+
+    #[test]
+    fn a_bad_entry_keeps_the_last_report_and_marks_it_stale() {
+        let state = State::demo(Theme::Device);
+        let before = state.checked.clone().unwrap();
+        let slot = Slot::Source(0, SourcePart::Mean);
+        let state = reduce(state, Action::Edit(Edit::Text(slot, "7 4".into())));
+        assert!(state.is_stale());
+        assert!(state.announcement().starts_with("Not checked: 1 entry"));
+        assert_eq!(state.checked.as_ref().unwrap(), &before);
+        assert!(matches!(
+            state.messages("arterial[0].mean").first(),
+            Some(Message::Error(_))
+        ));
+        let state = reduce(state, Action::Edit(Edit::Text(slot, "80".into())));
+        assert!(!state.is_stale());
+        assert_ne!(state.checked.as_ref().unwrap(), &before);
+    }
+
+    #[test]
+    fn an_out_of_range_value_gets_the_scenes_message() {
+        let state = State::demo(Theme::Device);
+        let slot = Slot::Source(0, SourcePart::Mean);
+        let state = reduce(state, Action::Edit(Edit::Text(slot, "900".into())));
+        let messages = state.messages("arterial[0].mean");
+        assert!(
+            matches!(messages.first(), Some(Message::Error(m)) if m.contains("outside")),
+            "{messages:?}"
+        );
+    }
+
+    #[test]
+    fn the_picture_labels_the_landmarks_in_use() {
+        let state = State::demo(Theme::Device);
+        let checked = state.checked.unwrap();
+        let set = checked.key_landmarks();
+        for l in [
+            Landmark::Heart,
+            Landmark::Tragus,
+            Landmark::UpperArmLeft,
+            Landmark::CordThoracic,
+        ] {
+            assert!(set.contains(&l), "{l}");
+        }
+        assert_eq!(checked.backrest_deg(), Some(65.0));
+        assert_eq!(checked.missed(), 2);
+    }
+
+    #[test]
+    fn the_theme_cycles_through_three() {
+        let t = Theme::Device;
+        assert_eq!(t.next().next().next(), t);
+        assert_eq!(Theme::from_key(Theme::Dark.key()), Theme::Dark);
+    }
+}
