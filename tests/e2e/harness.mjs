@@ -1,7 +1,7 @@
 // Shared set-up for the browser tests: a static server on 127.0.0.1 (port 0)
 // over dist/, Debian's Chromium through playwright-core, and the CLI.
 import { spawn, execFileSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync, existsSync, mkdirSync, rmSync } from 'node:fs';
+import { mkdtempSync, writeFileSync, existsSync, mkdirSync, rmSync, cpSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -11,14 +11,17 @@ export const root = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
 export const dist = join(root, 'dist');
 export const shots = join(root, 'tests', 'e2e', 'screenshots');
 
-/** Serves dist/ on 127.0.0.1 with an OS-chosen port; resolves to { url, stop }. */
-export function serve() {
+/**
+ * Serves dist/ (or another folder) on 127.0.0.1 with an OS-chosen port;
+ * resolves to { url, stop }.
+ */
+export function serve(folder = dist) {
   if (!existsSync(join(dist, 'index.html'))) {
     throw new Error('dist/ is missing: run scripts/build-web.sh first');
   }
   return new Promise((resolve, reject) => {
     const server = spawn('python3', ['-m', 'http.server', '--bind', '127.0.0.1', '0'], {
-      cwd: dist,
+      cwd: folder,
       stdio: ['ignore', 'pipe', 'pipe'],
     });
     let seen = '';
@@ -43,6 +46,28 @@ export function serve() {
 }
 
 /**
+ * Serves a copy of dist/ at `subPath` of a fresh site (`tools/plumbline/`
+ * tests publishing in a sub-folder); `change(dir)` may alter the copy first,
+ * and the copy in `dir` may be changed while it is served (a new build).
+ * Resolves to { url (the app's address), dir, stop }.
+ */
+export async function serveCopy({ subPath = '', change } = {}) {
+  const site = mkdtempSync(join(tmpdir(), 'plumbline-site-'));
+  const dir = join(site, subPath);
+  cpSync(dist, dir, { recursive: true });
+  change?.(dir);
+  const server = await serve(site);
+  return {
+    url: server.url + subPath,
+    dir,
+    stop: () => {
+      server.stop();
+      rmSync(site, { recursive: true, force: true });
+    },
+  };
+}
+
+/**
  * Debian's Chromium, headless, with no background traffic. playwright-core
  * gives every launch a fresh temporary profile (user-data-dir) of its own.
  */
@@ -59,24 +84,31 @@ export async function launch() {
 
 /**
  * Opens the app in a new page and waits for the first results. Every request
- * that leaves 127.0.0.1 is recorded, so a test can prove the page stays local.
+ * that leaves 127.0.0.1 is recorded (the context's, so the offline worker's
+ * too), so a test can prove the page stays local. Options: `viewport`,
+ * `colorScheme`, `serviceWorkers` ('allow' or 'block'), `address` (open
+ * this instead of `url`, e.g. with a fragment), `wait: false` (do not wait
+ * for results).
  */
 export async function open(browser, url, options = {}) {
   const context = await browser.newContext({
     viewport: options.viewport ?? { width: 1024, height: 768 },
     colorScheme: options.colorScheme ?? 'light',
+    serviceWorkers: options.serviceWorkers ?? 'allow',
   });
   context.setDefaultTimeout(8000);
   const page = await context.newPage();
   const foreign = [];
   const problems = [];
-  page.on('request', (r) => {
-    if (!r.url().startsWith(url) && !r.url().startsWith('data:')) foreign.push(r.url());
+  context.on('request', (r) => {
+    if (!r.url().startsWith(url) && !r.url().startsWith('data:') && !r.url().startsWith('blob:')) foreign.push(r.url());
   });
   page.on('pageerror', (e) => problems.push(String(e)));
   page.on('console', (m) => { if (m.type() === 'error') problems.push(m.text()); });
-  await page.goto(url);
-  await page.getByRole('heading', { name: "At the organs' own height" }).waitFor();
+  await page.goto(options.address ?? url);
+  if (options.wait !== false) {
+    await page.getByRole('heading', { name: "At the organs' own height" }).waitFor();
+  }
   return { context, page, foreign, problems };
 }
 
@@ -105,6 +137,26 @@ export function checkWithCli(caseJson) {
   }
 }
 
+/**
+ * Runs `plumbline record CSV --case CASE --json` (with any further
+ * arguments, e.g. `--min-episode-s 60`) on a record file's text and a case.
+ */
+export function recordWithCli(csvText, caseJson, args = []) {
+  const dir = mkdtempSync(join(tmpdir(), 'plumbline-record-'));
+  const csv = join(dir, 'record.csv');
+  const file = join(dir, 'case.json');
+  writeFileSync(csv, csvText);
+  writeFileSync(file, caseJson);
+  try {
+    return JSON.parse(execFileSync(cli(), ['record', csv, '--case', file, '--json', ...args], {
+      encoding: 'utf8',
+      maxBuffer: 64 * 1024 * 1024,
+    }));
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
 /** Rounds as the core's table and the screen do: half away from zero. */
 export function rounded(v) {
   const r = Math.sign(v) * Math.round(Math.abs(v));
@@ -114,4 +166,26 @@ export function rounded(v) {
 export function screenshotPath(name) {
   mkdirSync(shots, { recursive: true });
   return join(shots, `${name}.png`);
+}
+
+/** Polls `probe` until it returns a truthy value (or throws after `ms`). */
+export async function until(probe, what, ms = 10000) {
+  const start = Date.now();
+  let last;
+  for (;;) {
+    try {
+      last = await probe();
+      if (last) return last;
+    } catch (e) {
+      last = e;
+    }
+    if (Date.now() - start > ms) throw new Error(`timed out waiting for ${what}: ${last}`);
+    await new Promise((r) => setTimeout(r, 50));
+  }
+}
+
+/** The page's "case as JSON" (opening its panel without moving the focus). */
+export async function caseJsonOf(page) {
+  await page.locator('.case-json details').evaluate((d) => { d.open = true; });
+  return page.getByRole('textbox', { name: 'Case as JSON' }).inputValue();
 }

@@ -1,14 +1,17 @@
-//! The app: owns the state (a reducer), applies the theme to the page, and
-//! shows the check screen.
+//! The app: starts from what the device saved (or a shared link), keeps
+//! the device's copy in step, applies the theme to the page, listens for a
+//! link pasted into the address bar and for a new version, and shows the
+//! check screen.
 
-use gloo::storage::{LocalStorage, Storage};
+use gloo::events::EventListener;
 use yew::prelude::*;
 
+use crate::browser;
 use crate::pages::check_page::CheckPage;
-use crate::state::{State, Theme};
-
-/// Where the chosen theme is kept on the device (nothing about a patient).
-const THEME_KEY: &str = "plumbline.theme";
+use crate::persist::{self, Persisted};
+use crate::session::{is_link, SessionAction, Stored};
+use crate::state::{Action, State};
+use crate::storage::{KEPT_KEY, KEPT_RECORD_KEY, RECORD_KEY, STATE_KEY, UNREADABLE_KEY};
 
 /// Props of [`App`].
 #[derive(Properties, PartialEq, Default)]
@@ -18,8 +21,14 @@ pub struct AppProps {}
 #[component]
 pub fn App(_props: &AppProps) -> Html {
     let state = use_reducer(|| {
-        let saved: Option<String> = LocalStorage::get(THEME_KEY).ok();
-        State::demo(saved.as_deref().map_or(Theme::Device, Theme::from_key))
+        let stored = Stored {
+            state: browser::read(STATE_KEY),
+            record: browser::read(RECORD_KEY),
+            kept: browser::read(KEPT_KEY),
+            kept_record: browser::read(KEPT_RECORD_KEY),
+            unreadable: browser::read(UNREADABLE_KEY),
+        };
+        State::start(stored, Some(&browser::fragment()))
     });
     let theme = state.theme;
     use_effect_with(theme, move |theme| {
@@ -27,8 +36,55 @@ pub fn App(_props: &AppProps) -> Html {
             // An attribute that cannot be set leaves the device's theme.
             let _ = root.set_attribute("data-theme", theme.key());
         }
-        // Storage may be off (private browsing); the theme then lasts the visit.
-        let _ = LocalStorage::set(THEME_KEY, theme.key());
     });
+    // After every change: the device's copy follows the screen; and when
+    // the page is hidden or closed, at once, even before the next render.
+    let persisted = use_mut_ref(Persisted::default);
+    {
+        let (state, persisted) = (state.clone(), persisted.clone());
+        use_effect(move || {
+            let ok = persisted.borrow_mut().sync(&state);
+            if ok == state.session.not_saved {
+                state.dispatch(Action::Session(SessionAction::Saved(ok)));
+            }
+        });
+    }
+    use_effect_with((), move |_| {
+        let flush = move |_: &web_sys::Event| {
+            if let Some(latest) = persist::latest() {
+                persisted.borrow_mut().sync(&latest);
+            }
+        };
+        let document = gloo::utils::document();
+        let hidden = EventListener::new(&document, "visibilitychange", flush.clone());
+        let closing = EventListener::new(&gloo::utils::window(), "pagehide", flush);
+        move || drop((hidden, closing))
+    });
+    {
+        let d = state.dispatcher();
+        use_effect_with((), move |_| {
+            // The link is open (or refused): it leaves the address bar, so
+            // a reload shows the check as it is now.
+            if is_link(&browser::fragment()) {
+                browser::clear_fragment();
+            }
+            if browser::update_was_ready() {
+                d.dispatch(Action::Session(SessionAction::UpdateReady));
+            }
+            let window = gloo::utils::window();
+            let on_link = d.clone();
+            let hash = EventListener::new(&window, "hashchange", move |_| {
+                let fragment = browser::fragment();
+                if is_link(&fragment) && !browser::is_anchor(&fragment) {
+                    browser::clear_fragment();
+                    on_link.dispatch(Action::Session(SessionAction::OpenLink(fragment)));
+                }
+            });
+            let update = EventListener::new(&window, browser::UPDATE_READY_EVENT, move |_| {
+                d.dispatch(Action::Session(SessionAction::UpdateReady));
+            });
+            move || drop((hash, update))
+        });
+    }
     html! { <CheckPage state={state} /> }
 }

@@ -146,7 +146,7 @@ pub struct Chart {
 }
 
 /// A tick step of 1, 2 or 5 times a power of ten giving about `count` ticks.
-fn nice_step(span: f64, count: f64) -> f64 {
+pub(crate) fn nice_step(span: f64, count: f64) -> f64 {
     let raw = (span / count).max(1e-9);
     let power = 10f64.powf(raw.log10().floor());
     [1.0, 2.0, 5.0, 10.0]

@@ -9,6 +9,7 @@
 use plumbline_core::units::{
     LengthEntry, LengthUnit, PressureEntry, PressureUnit, QuantityTextError,
 };
+use serde::{Deserialize, Serialize};
 
 /// Decimals shown after a unit switch: enough to read like a monitor, never
 /// used for the check itself (the exact conversion is).
@@ -37,7 +38,7 @@ fn shown(amount: f64, symbol: &str) -> String {
 macro_rules! quantity_text {
     ($name:ident, $entry:ty, $unit:ty, $doc:literal) => {
         #[doc = $doc]
-        #[derive(Clone, Debug, PartialEq)]
+        #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
         pub struct $name {
             /// The text in the box.
             pub text: String,
@@ -45,6 +46,7 @@ macro_rules! quantity_text {
             pub unit: $unit,
             /// What was typed, and in which unit, when the box shows a
             /// conversion of it.
+            #[serde(default, skip_serializing_if = "Option::is_none")]
             typed: Option<(String, $unit)>,
         }
 

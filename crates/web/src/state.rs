@@ -10,7 +10,7 @@ use std::rc::Rc;
 use plumbline_core::case::Case;
 use plumbline_core::check;
 use plumbline_core::demo::CASE_JSON;
-use plumbline_core::error::{Error, ErrorKind, Errors, Warning};
+use plumbline_core::error::{Error, Errors, Warning};
 use plumbline_core::landmark::Landmark;
 use plumbline_core::reading::Level;
 use plumbline_core::report::Report;
@@ -18,6 +18,8 @@ use plumbline_core::target::Status;
 use yew::{Reducible, UseReducerDispatcher, UseReducerHandle};
 
 use crate::form::{Edit, Form};
+use crate::record::{Record, RecordAction};
+use crate::session::{Session, SessionAction};
 
 /// What components hold to send actions to the state.
 pub type Dispatch = UseReducerDispatcher<State>;
@@ -98,6 +100,10 @@ pub struct State {
     pub theme: Theme,
     /// The invented demo case, to say so while it is on screen.
     demo: Option<Rc<Case>>,
+    /// Saving, links, a check set aside, updates (`session`).
+    pub session: Session,
+    /// The record over time, held beside the form (`record`).
+    pub record: Record,
 }
 
 /// Every change to the state.
@@ -109,30 +115,25 @@ pub enum Action {
     LoadDemo,
     /// Another colour theme.
     Theme(Theme),
+    /// A change to the session: a new check, a link, a set-aside check.
+    Session(SessionAction),
+    /// A change to the record over time.
+    Record(RecordAction),
 }
 
 impl State {
     /// The screen on start: the demo case, checked.
     pub fn demo(theme: Theme) -> Self {
-        // The demo is the project's own document, so it is read without the
-        // path-tracking reader (`Case::from_json`), which would add a fifth
-        // to the download; its own tests check it against the core's reader.
-        let (form, errors, demo) = match serde_json::from_str::<Case>(CASE_JSON) {
+        // The demo is read by the core's own reader, as saved checks and
+        // share links are: one reader in the download (a second, plain
+        // serde reader of the case cost 17 KB gzip).
+        let (form, errors, demo) = match Case::from_json(CASE_JSON) {
             Ok(case) => (
                 Form::from_case(&case),
                 Errors::default(),
                 Some(Rc::new(case)),
             ),
-            Err(e) => (
-                Form::from_case(&Case::new()),
-                Errors::from(Error::new(
-                    "",
-                    ErrorKind::Shape {
-                        message: e.to_string(),
-                    },
-                )),
-                None,
-            ),
+            Err(errors) => (Form::from_case(&Case::new()), errors, None),
         };
         let mut state = State {
             form,
@@ -140,6 +141,8 @@ impl State {
             errors,
             theme,
             demo,
+            session: Session::default(),
+            record: Record::default(),
         };
         if state.errors.is_empty() {
             state.recheck();
@@ -148,7 +151,10 @@ impl State {
     }
 
     /// Checks the form's case with the core.
-    fn recheck(&mut self) {
+    pub(crate) fn recheck(&mut self) {
+        // A record riding in the form's case moves beside it first, so no
+        // keystroke copies or checks it.
+        self.record.adopt(&mut self.form);
         match self.form.to_case().and_then(|case| {
             let report = check::check_case(&case)?;
             Ok((case, report))
@@ -160,6 +166,7 @@ impl State {
                     case,
                 }));
                 self.errors = Errors::default();
+                self.record.case_changed();
             }
             Err(errors) => self.errors = errors,
         }
@@ -289,10 +296,19 @@ impl Reducible for State {
                 next.form.apply(edit);
                 next.recheck();
             }
-            Action::LoadDemo => next = State::demo(self.theme),
+            Action::LoadDemo => next.replace_with_demo(),
             Action::Theme(theme) => next.theme = theme,
+            Action::Session(action) => next.apply_session(action),
+            Action::Record(action) => {
+                let stale = next.is_stale();
+                let case = next.checked.as_ref().map(|c| &c.case);
+                next.record.apply(action, case, stale);
+            }
         }
-        Rc::new(next)
+        let next = Rc::new(next);
+        // A page closed before the next render still saves this (`persist`).
+        crate::persist::note(&next);
+        next
     }
 }
 
@@ -304,12 +320,6 @@ mod tests {
 
     fn reduce(state: State, action: Action) -> State {
         Rc::try_unwrap(Rc::new(state).reduce(action)).unwrap()
-    }
-
-    #[test]
-    fn the_demo_reads_the_same_without_the_path_tracking_reader() {
-        let direct: Case = serde_json::from_str(CASE_JSON).unwrap();
-        assert_eq!(direct, Case::from_json(CASE_JSON).unwrap());
     }
 
     #[test]

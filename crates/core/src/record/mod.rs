@@ -920,8 +920,10 @@ fn summarize(f: &Followed<'_>, t: Tally, rules: &Rules) -> TargetExposure {
         .episodes
         .iter()
         .partition(|(dur, _)| *dur >= rules.min_episode_s);
-    let outside_s: f64 = kept.iter().map(|(d, _)| d).sum();
-    let area_s: f64 = kept.iter().map(|(_, a)| a).sum();
+    // An empty sum of floats is -0.0; adding 0.0 makes it 0, so a target
+    // never outside reads "0.0 min", not "-0.0 min".
+    let outside_s: f64 = kept.iter().map(|(d, _)| d).sum::<f64>() + 0.0;
+    let area_s: f64 = kept.iter().map(|(_, a)| a).sum::<f64>() + 0.0;
     let longest_s = kept.iter().map(|(d, _)| *d).fold(0.0, f64::max);
     let observed_min = t.observed_s / 60.0;
     let outside_min = outside_s / 60.0;
@@ -1043,6 +1045,102 @@ pub fn series_csv(scene: &Scene, timeline: &Timeline) -> String {
         }
         out.push('\n');
     }
+    out
+}
+
+/// One observed stretch of a metric over a record: points joined by
+/// straight lines. A held reading replaced by the next gives a step, two
+/// points at one time.
+#[derive(Clone, Debug, Default, PartialEq, Serialize)]
+pub struct Run {
+    /// Times, seconds from the start, never decreasing.
+    pub t_s: Vec<f64>,
+    /// The metric at those times, mmHg.
+    pub mmhg: Vec<f64>,
+}
+
+/// A followed metric's organ-level values over a record, for drawing.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct MetricSeries {
+    /// The organ.
+    pub organ: Organ,
+    /// The metric.
+    pub metric: Metric,
+    /// The metric's name (`"CPP"`).
+    pub label: &'static str,
+    /// The observed stretches, in time order; unobserved time lies between
+    /// them.
+    pub runs: Vec<Run>,
+}
+
+/// The organ-level series as data: one entry per followed organ and
+/// metric, in the order of [`series_csv`]'s columns and with the same
+/// values, over the record's span. Where [`series_csv`] writes one value per
+/// event time, this keeps both ends of every interval, so steps and gaps
+/// are exact.
+///
+/// # Example
+/// ```
+/// use plumbline_core::{case::Case, record, scene::Scene};
+/// let case = Case::from_json(plumbline_core::demo::CASE_JSON).unwrap();
+/// let scene = Scene::from_case(&case).unwrap();
+/// let csv = "elapsed_s,radial line.mean [mmHg]\n0,70\n60,60\n";
+/// let spec = record::csv::import(csv, &scene).unwrap();
+/// let timeline = record::Timeline::from_spec(&spec, &scene).unwrap();
+/// let series = record::series(&scene, &timeline);
+/// let map = series.iter().find(|s| s.label == "MAP at the heart").unwrap();
+/// assert_eq!(map.runs[0].t_s, vec![0.0, 60.0]);
+/// assert_eq!(map.runs[0].mmhg, vec![70.0, 60.0]);
+/// ```
+pub fn series(scene: &Scene, timeline: &Timeline) -> Vec<MetricSeries> {
+    let (from, to) = timeline.span().unwrap_or((0.0, 0.0));
+    let plan = plan(scene, timeline);
+    let mut out: Vec<MetricSeries> = Vec::new();
+    // For each followed target, the series it feeds if it is the first of
+    // its organ and metric (later ones give the same values).
+    let mut feeds: Vec<Option<usize>> = Vec::new();
+    for f in &plan.followed {
+        let (organ, metric) = (f.target.organ, f.target.metric);
+        if out.iter().any(|s| (s.organ, s.metric) == (organ, metric)) {
+            feeds.push(None);
+        } else {
+            feeds.push(Some(out.len()));
+            out.push(MetricSeries {
+                organ,
+                metric,
+                label: organ.metric_label(metric),
+                runs: Vec::new(),
+            });
+        }
+    }
+    let mut open = vec![false; out.len()];
+    walk(scene, timeline, &plan, from, to, |a, b, ends| {
+        for (k, end) in feeds.iter().zip(ends) {
+            let Some(k) = *k else { continue };
+            let (Some(s), Some(is_open)) = (out.get_mut(k), open.get_mut(k)) else {
+                continue;
+            };
+            let Some((ma, mb)) = end else {
+                *is_open = false;
+                continue;
+            };
+            if !*is_open {
+                s.runs.push(Run::default());
+                *is_open = true;
+            }
+            let Some(run) = s.runs.last_mut() else {
+                continue;
+            };
+            let (va, vb) = (to_mmhg(*ma), to_mmhg(*mb));
+            let joins = run.t_s.last() == Some(&a) && run.mmhg.last() == Some(&va);
+            if !joins {
+                run.t_s.push(a);
+                run.mmhg.push(va);
+            }
+            run.t_s.push(b);
+            run.mmhg.push(vb);
+        }
+    });
     out
 }
 
@@ -1242,6 +1340,28 @@ mod tests {
     }
 
     #[test]
+    fn a_target_never_outside_has_no_negative_zero() {
+        let s = scene("transducer");
+        let tl = timeline(
+            &s,
+            "a.mean",
+            &[0.0, 60.0],
+            &[80.0, 80.0],
+            RulesSpec::default(),
+        );
+        let x = analyze(&s, &tl, None).targets[0].clone();
+        for v in [
+            x.outside_min,
+            x.outside_percent,
+            x.area_mmhg_min,
+            x.twa_mmhg,
+        ] {
+            assert!(v == 0.0 && v.is_sign_positive(), "{v}");
+        }
+        assert!(!x.words.contains("-0"), "{}", x.words);
+    }
+
+    #[test]
     fn unknown_channels_and_bad_samples_are_named() {
         let s = scene("cuff");
         let spec = TimelineSpec {
@@ -1317,6 +1437,62 @@ mod tests {
         assert_eq!(lines[1], "0,60.00");
         assert_eq!(lines[2], "10,");
         assert_eq!(lines[3], "200,");
+    }
+
+    #[test]
+    fn series_keeps_steps_and_gaps() {
+        // A held cuff: 70 then 60 from 300 s, held at most 600 s, then a
+        // sample at 1500 s after an unobserved stretch.
+        let s = scene("cuff");
+        let tl = timeline(
+            &s,
+            "a.mean",
+            &[0.0, 300.0, 1500.0, 1560.0],
+            &[70.0, 60.0, 65.0, 66.0],
+            RulesSpec::default(),
+        );
+        let series = series(&s, &tl);
+        assert_eq!(series.len(), 1);
+        let map = &series[0];
+        assert_eq!((map.organ, map.metric), (Organ::WholeBody, Metric::Inflow));
+        assert_eq!(map.runs.len(), 2, "{:?}", map.runs);
+        // 600 s is an event too: the first reading's hold ends there.
+        assert_eq!(map.runs[0].t_s, vec![0.0, 300.0, 300.0, 600.0, 900.0]);
+        assert_eq!(map.runs[0].mmhg, vec![70.0, 70.0, 60.0, 60.0, 60.0]);
+        // The record ends at the last sample: its value holds no time.
+        assert_eq!(map.runs[1].t_s, vec![1500.0, 1560.0]);
+        assert_eq!(map.runs[1].mmhg, vec![65.0, 65.0]);
+    }
+
+    #[test]
+    fn series_gives_the_values_of_series_csv() {
+        let s = scene("transducer");
+        let t = [0.0, 10.0, 20.0, 200.0, 230.0];
+        let v = [60.0, 62.0, 61.0, 64.0, 70.0];
+        let tl = timeline(&s, "a.mean", &t, &v, RulesSpec::default());
+        let csv = series_csv(&s, &tl);
+        let rows: Vec<(f64, Option<f64>)> = csv
+            .lines()
+            .skip(1)
+            .map(|l| {
+                let (t, v) = l.split_once(',').unwrap();
+                (t.parse().unwrap(), v.parse().ok())
+            })
+            .collect();
+        let runs = &series(&s, &tl)[0].runs;
+        // Every observed row's value is a point of a run at that time.
+        for (t, v) in rows.iter().filter_map(|(t, v)| Some((*t, (*v)?))) {
+            let found = runs.iter().any(|r| {
+                r.t_s
+                    .iter()
+                    .zip(&r.mmhg)
+                    .any(|(rt, rv)| *rt == t && (rv - v).abs() < 0.005)
+            });
+            assert!(found, "{t} {v} in {runs:?}");
+        }
+        // The 180 s gap splits the line in two.
+        assert_eq!(runs.len(), 2);
+        assert_eq!(runs[1].t_s, vec![200.0, 230.0]);
     }
 
     fn arbitrary_series() -> impl Strategy<Value = (Vec<f64>, Vec<f64>)> {

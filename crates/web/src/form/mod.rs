@@ -18,6 +18,7 @@ use plumbline_core::organ::{Metric, Organ};
 use plumbline_core::reading::{Method, Quantity};
 use plumbline_core::target::{self, TargetSpec};
 use plumbline_core::units::{LengthUnit, PressureUnit};
+use serde::{Deserialize, Serialize};
 
 pub use parts::{
     AssumedForm, BoundKind, LevelForm, LevelPick, ReadingForm, SourceForm, TargetForm,
@@ -141,9 +142,11 @@ pub enum Edit {
     DefaultTargets,
 }
 
-/// The whole form.
-#[derive(Clone, Debug, PartialEq)]
+/// The whole form. It is saved on the device as the boxes hold it
+/// (`storage`); the case it rides on is saved beside it, as a case document.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Form {
+    #[serde(skip)]
     base: Case,
     /// Standing body height.
     pub height: LengthText,
@@ -200,6 +203,18 @@ impl Form {
             targets,
             custom_targets,
         }
+    }
+
+    /// The case the form was loaded from: everything the boxes do not
+    /// edit rides along in it.
+    pub fn base(&self) -> &Case {
+        &self.base
+    }
+
+    /// The form with another case to ride on, for a form read back from
+    /// the device without its case.
+    pub fn with_base(self, base: Case) -> Self {
+        Form { base, ..self }
     }
 
     /// The case the form stands for.

@@ -13,6 +13,8 @@ use plumbline_core::reading::{Level, Method, Quantity};
 use plumbline_core::target::TargetSpec;
 use plumbline_core::units::{LengthUnit, PressureEntry, PressureUnit, QuantityTextError};
 
+use serde::{Deserialize, Serialize};
+
 use crate::fields::{number, number_text, LengthText, PressureText};
 
 /// Records why `result` could not be read, at `path`.
@@ -49,7 +51,7 @@ pub fn required(field: &PressureText, path: &str, errors: &mut Errors) -> Option
 }
 
 /// Where a level is, as the picker offers it.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
 pub enum LevelPick {
     /// The quantity's usual reference (assumed values only).
     Usual,
@@ -60,7 +62,7 @@ pub enum LevelPick {
 }
 
 /// A level's picker and, for a measured height, its box.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct LevelForm {
     /// What is picked.
     pub pick: LevelPick,
@@ -107,7 +109,7 @@ impl LevelForm {
 }
 
 /// One arterial source.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct SourceForm {
     /// Its short label, as typed.
     pub id: String,
@@ -208,7 +210,7 @@ fn first_level(quantity: Quantity) -> Landmark {
 }
 
 /// One measured reading other than arterial.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct ReadingForm {
     /// The value.
     pub value: PressureText,
@@ -258,7 +260,7 @@ impl ReadingForm {
 }
 
 /// One assumed value.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct AssumedForm {
     /// The value assumed.
     pub value: PressureText,
@@ -301,7 +303,7 @@ impl AssumedForm {
 }
 
 /// The kind of bound a target sets.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
 pub enum BoundKind {
     /// A floor.
     AtLeast,
@@ -339,7 +341,7 @@ impl BoundKind {
 }
 
 /// One target.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct TargetForm {
     /// The organ.
     pub organ: Organ,

@@ -7,6 +7,8 @@
 use plumbline_core::error::{Error, ErrorKind, Errors};
 use plumbline_core::geometry::{Angles, ArmPlacement, PositionSpec, Posture};
 
+use serde::{Deserialize, Serialize};
+
 use super::parts::required_number;
 use crate::fields::{number, number_text};
 
@@ -80,7 +82,7 @@ impl AngleKey {
 }
 
 /// Where an arm is, as the picker offers it.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
 pub enum ArmChoice {
     /// The posture's preset.
     Preset,
@@ -121,7 +123,7 @@ impl ArmChoice {
 }
 
 /// One arm.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct ArmForm {
     /// The placement chosen.
     pub choice: ArmChoice,
@@ -191,7 +193,7 @@ fn required_angle(text: &str, path: &str, errors: &mut Errors) -> Option<f64> {
 }
 
 /// The position as the form holds it.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct PositionForm {
     /// The named posture; `None` when the case gives no position.
     pub posture: Option<Posture>,

@@ -15,12 +15,16 @@ use crate::components::position_panel::PositionPanel;
 use crate::components::problems::Problems;
 use crate::components::readings_panel::ReadingsPanel;
 use crate::components::readings_summary::ReadingsSummary;
+use crate::components::record_panel::RecordPanel;
+use crate::components::session_notices::SessionNotices;
+use crate::components::share_dialog::ShareDialog;
 use crate::components::sources_panel::SourcesPanel;
 use crate::components::sweep_chart::SweepChart;
 use crate::components::targets_panel::TargetsPanel;
 use crate::components::theme_toggle::ThemeToggle;
 use crate::components::verdicts::Verdicts;
 use crate::components::warnings_panel::WarningsPanel;
+use crate::session::SessionAction;
 use crate::state::{missed_words, Action, Handle};
 
 /// Props of [`CheckPage`].
@@ -54,6 +58,11 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
             }
         })
     };
+    // No question asked: the check on screen is set aside, with an undo.
+    let onnew = {
+        let d = s.dispatcher();
+        Callback::from(move |_: MouseEvent| d.dispatch(Action::Session(SessionAction::NewCheck)))
+    };
     let checked = s.checked.clone();
     html! {
         <>
@@ -68,11 +77,14 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                     <p class="tagline">{ "perfusion pressure at the organ's own height" }</p>
                 </div>
                 <div class="tools">
+                    <button type="button" class="tool" onclick={onnew}>{ "New check" }</button>
+                    <ShareDialog state={s.clone()} />
                     <button type="button" class="tool" onclick={ondemo} aria-label="Reload the demo case">{ "Demo case" }</button>
                     <button type="button" class="tool" onclick={onprint} aria-label="Print a one-page handover">{ "Print" }</button>
                     <ThemeToggle state={s.clone()} />
                 </div>
             </header>
+            <SessionNotices state={s.clone()} />
             <p class="sr-only" aria-live="polite">{ s.announcement() }</p>
             <main class="layout">
                 <div class="col col-inputs">
@@ -124,6 +136,7 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                         </div>
                     }
                 </div>
+                <RecordPanel state={s.clone()} />
             </main>
             <Caution />
         </>

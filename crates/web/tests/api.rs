@@ -1,0 +1,132 @@
+//! The JavaScript face in headless Chromium (`wasm-bindgen-test`): `check`
+//! and `shareFragment` called with plain objects, as another page calls
+//! them, against the core's own `check::check_case` and `share::decode`.
+
+#![cfg(target_arch = "wasm32")]
+#![allow(clippy::unwrap_used, clippy::expect_used, clippy::indexing_slicing)]
+
+use plumbline_core::case::Case;
+use plumbline_core::demo::CASE_JSON;
+use plumbline_core::{check, share};
+use plumbline_web::api::{check_js, share_fragment_js};
+use serde_json::Value;
+use wasm_bindgen::JsValue;
+use wasm_bindgen_test::{wasm_bindgen_test, wasm_bindgen_test_configure};
+
+wasm_bindgen_test_configure!(run_in_browser);
+
+/// A plain JavaScript object, as another page would build it.
+fn object(json: &str) -> JsValue {
+    js_sys::JSON::parse(json).unwrap()
+}
+
+/// What JavaScript would see, as JSON.
+fn seen(value: &JsValue) -> Value {
+    let text: String = js_sys::JSON::stringify(value).unwrap().into();
+    serde_json::from_str(&text).unwrap()
+}
+
+/// Whether two numbers are the same f64 but for the last bit, which
+/// serde_json's fast float reading may miss when it reads JavaScript's text.
+fn close(x: Option<f64>, y: Option<f64>) -> bool {
+    matches!((x, y), (Some(x), Some(y)) if (x - y).abs() <= 4.0 * f64::EPSILON * x.abs().max(1.0))
+}
+
+/// Where two JSON values first differ, numbers compared as numbers
+/// (JavaScript writes `0` where serde writes `0.0`); `None` when equal.
+fn differ(a: &Value, b: &Value, at: &str) -> Option<String> {
+    match (a, b) {
+        (Value::Number(x), Value::Number(y)) if close(x.as_f64(), y.as_f64()) => None,
+        (Value::Array(x), Value::Array(y)) if x.len() == y.len() => x
+            .iter()
+            .zip(y)
+            .enumerate()
+            .find_map(|(i, (x, y))| differ(x, y, &format!("{at}[{i}]"))),
+        (Value::Object(x), Value::Object(y)) if x.len() == y.len() => {
+            x.iter().find_map(|(k, v)| {
+                y.get(k).map_or_else(
+                    || Some(format!("{at}.{k} missing")),
+                    |w| differ(v, w, &format!("{at}.{k}")),
+                )
+            })
+        }
+        _ if a == b => None,
+        _ => Some(format!("{at}: {a} against {b}")),
+    }
+}
+
+#[wasm_bindgen_test]
+fn check_gives_the_cores_report_for_a_case_object() {
+    let answer = seen(&check_js(object(CASE_JSON)));
+    assert_eq!(answer["ok"], Value::Bool(true));
+    assert_eq!(answer["errors"], Value::Array(vec![]));
+    let case = Case::from_json(CASE_JSON).unwrap();
+    let expected = serde_json::to_value(check::check_case(&case).unwrap()).unwrap();
+    assert_eq!(differ(&answer["report"], &expected, "report"), None);
+    assert!(answer["report"]["organs"]
+        .as_array()
+        .is_some_and(|o| !o.is_empty()));
+}
+
+#[wasm_bindgen_test]
+fn every_problem_comes_back_with_its_field() {
+    let text = r#"{"format": "plumbline-case", "version": 1,
+        "arterial": [{"id": "a", "method": "cuff", "level": "heart", "systolic": "120"}]}"#;
+    let answer = seen(&check_js(object(text)));
+    assert_eq!(answer["ok"], Value::Bool(false));
+    assert!(answer.get("report").is_none());
+    let core = Case::from_json(text).unwrap_err();
+    let first = core.iter().next().unwrap();
+    assert_eq!(
+        answer["errors"][0]["field"],
+        Value::from(first.field.as_str())
+    );
+    assert_eq!(
+        answer["errors"][0]["message"],
+        Value::from(first.kind.to_string())
+    );
+
+    // A case the core's scene refuses (no height for a position) names it too.
+    let text = r#"{"format": "plumbline-case", "version": 1, "position": {"posture": "supine"},
+        "arterial": [{"id": "line", "method": "transducer", "level": "heart", "mean": "80 mmHg"}]}"#;
+    let answer = seen(&check_js(object(text)));
+    let core = check::check_json(text).unwrap_err();
+    let fields: Vec<&str> = core.iter().map(|e| e.field.as_str()).collect();
+    let got: Vec<&str> = answer["errors"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter_map(|e| e["field"].as_str())
+        .collect();
+    assert_eq!(got, fields);
+}
+
+#[wasm_bindgen_test]
+fn what_is_not_a_case_object_is_refused_in_words() {
+    for value in [
+        JsValue::from_str("a case"),
+        JsValue::NULL,
+        JsValue::UNDEFINED,
+        object("[1, 2]"),
+        object(r#"{"format": "plumbline-case", "version": 7}"#),
+    ] {
+        let answer = seen(&check_js(value));
+        assert_eq!(answer["ok"], Value::Bool(false));
+        let message = answer["errors"][0]["message"].as_str().unwrap();
+        assert!(!message.is_empty());
+    }
+}
+
+#[wasm_bindgen_test]
+fn share_fragment_carries_the_case() {
+    let answer = seen(&share_fragment_js(object(CASE_JSON)));
+    assert_eq!(answer["ok"], Value::Bool(true));
+    let fragment = answer["fragment"].as_str().unwrap();
+    assert!(fragment.starts_with(share::PREFIX));
+    assert_eq!(
+        share::decode(fragment).unwrap(),
+        Case::from_json(CASE_JSON).unwrap()
+    );
+    let refused = seen(&share_fragment_js(object("{}")));
+    assert_eq!(refused["ok"], Value::Bool(false));
+}
