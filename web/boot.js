@@ -25,6 +25,9 @@ if ('serviceWorker' in navigator) {
     if (registration.waiting && workers.controller) ready();
     watch(registration.installing);
     registration.addEventListener('updatefound', () => watch(registration.installing));
+    // Look for a new version at every start rather than when the browser
+    // gets round to it; offline the check simply fails.
+    registration.update().catch(() => {});
     window.addEventListener('plumbline-apply-update', () => {
       applying = true;
       registration.waiting?.postMessage('apply-update');

@@ -10,7 +10,7 @@
 //      shareFragment(); the screen does not mount there
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
-import { readFileSync, writeFileSync } from 'node:fs';
+import { readFileSync, writeFileSync, utimesSync } from 'node:fs';
 import { join } from 'node:path';
 import { serveCopy, launch, open, until, caseJsonOf, checkWithCli, screenshotPath } from './harness.mjs';
 
@@ -81,6 +81,11 @@ test('a new build is offered, keeps the open check, and replaces the old cache',
     // A new build: the worker's build hash changes.
     const worker = join(site.dir, 'sw.js');
     writeFileSync(worker, readFileSync(worker, 'utf8').replace(/^const BUILD = '.*';$/m, "const BUILD = 'next-build';"));
+    // A real new build comes later than the one-second Last-Modified stamp
+    // of the first; rewritten within the same second, the static server
+    // would answer the browser's update check "304 not modified".
+    const later = new Date(Date.now() + 60_000);
+    utimesSync(worker, later, later);
     await page.reload();
     await ready(page);
     const offer = page.getByRole('status').filter({ hasText: 'A new version of Plumbline is ready' });

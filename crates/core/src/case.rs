@@ -400,6 +400,28 @@ impl Case {
         })
     }
 
+    /// A copy without its record over time, made without copying the record.
+    pub fn without_timeline(&self) -> Case {
+        Case {
+            format: self.format.clone(),
+            version: self.version,
+            patient: self.patient.clone(),
+            position: self.position.clone(),
+            segments: self.segments.clone(),
+            heights: self.heights.clone(),
+            densities: self.densities.clone(),
+            mean_rule: self.mean_rule,
+            arterial: self.arterial.clone(),
+            primary_arterial: self.primary_arterial.clone(),
+            readings: self.readings.clone(),
+            assume: self.assume.clone(),
+            organ_levels: self.organ_levels.clone(),
+            targets: self.targets.clone(),
+            baseline: self.baseline.clone(),
+            timeline: None,
+        }
+    }
+
     /// The case as pretty JSON.
     pub fn to_json(&self) -> String {
         serde_json::to_string_pretty(self).unwrap_or_default()

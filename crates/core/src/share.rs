@@ -43,9 +43,7 @@ fn damaged(message: impl Into<String>) -> Errors {
 /// assert_eq!(share::decode(&fragment).unwrap(), case);
 /// ```
 pub fn encode(case: &Case) -> String {
-    let mut case = case.clone();
-    case.timeline = None;
-    let json = serde_json::to_vec(&case).unwrap_or_default();
+    let json = serde_json::to_vec(&case.without_timeline()).unwrap_or_default();
     let deflated = miniz_oxide::deflate::compress_to_vec(&json, 9);
     format!("{PREFIX}{}", URL_SAFE_NO_PAD.encode(deflated))
 }

@@ -80,10 +80,7 @@ pub fn encode(form: &Form, theme: Theme) -> String {
     let base = form.base();
     let lean;
     let case = if base.timeline.is_some() {
-        lean = Case {
-            timeline: None,
-            ..base.clone()
-        };
+        lean = base.without_timeline();
         &lean
     } else {
         base

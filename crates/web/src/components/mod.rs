@@ -38,5 +38,6 @@ pub mod sweep_chart;
 pub mod target_row;
 pub mod targets_panel;
 pub mod theme_toggle;
+pub mod unit_input;
 pub mod verdicts;
 pub mod warnings_panel;

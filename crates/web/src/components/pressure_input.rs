@@ -2,13 +2,11 @@
 //! messages about it.
 
 use plumbline_core::units::PressureUnit;
-use web_sys::{HtmlInputElement, HtmlSelectElement};
 use yew::prelude::*;
 
-use crate::components::field_messages::FieldMessages;
+use crate::components::unit_input::UnitInput;
 use crate::fields::PressureText;
 use crate::form::{Edit, Slot};
-use crate::show::dom_id;
 use crate::state::{Action, Dispatch, Message};
 
 /// Props of [`PressureInput`].
@@ -31,46 +29,20 @@ pub struct PressureInputProps {
 /// A pressure box with its unit switch.
 #[component]
 pub fn PressureInput(props: &PressureInputProps) -> Html {
-    let id = dom_id(&props.path);
-    let msg_id = format!("{id}-msg");
-    let slot = props.slot;
-    let oninput = {
-        let d = props.dispatch.clone();
-        Callback::from(move |e: InputEvent| {
-            let text = e.target_unchecked_into::<HtmlInputElement>().value();
-            d.dispatch(Action::Edit(Edit::Text(slot, text)));
-        })
-    };
-    let onchange = {
-        let d = props.dispatch.clone();
-        Callback::from(move |e: Event| {
-            let key = e.target_unchecked_into::<HtmlSelectElement>().value();
-            if let Some(unit) = PressureUnit::ALL.into_iter().find(|u| u.symbol() == key) {
-                d.dispatch(Action::Edit(Edit::PressureUnit(slot, unit)));
+    let on_unit = {
+        let (d, slot) = (props.dispatch.clone(), props.slot);
+        Callback::from(move |symbol: String| {
+            if let Some(u) = PressureUnit::ALL.into_iter().find(|u| u.symbol() == symbol) {
+                d.dispatch(Action::Edit(Edit::PressureUnit(slot, u)));
             }
         })
     };
-    let invalid = props
-        .messages
-        .iter()
-        .any(|m| matches!(m, Message::Error(_)));
     html! {
-        <div class={classes!("field", invalid.then_some("field-invalid"))}>
-            <label for={id.clone()}>{ &props.label }</label>
-            <div class="entry">
-                <input id={id.clone()} type="text" inputmode="decimal" autocomplete="off"
-                    spellcheck="false"
-                    value={props.field.text.clone()} {oninput}
-                    aria-invalid={if invalid { "true" } else { "false" }}
-                    aria-describedby={(!props.messages.is_empty()).then(|| msg_id.clone())} />
-                <select id={format!("{id}-unit")} class="unit"
-                    aria-label={format!("{} unit", props.label)} {onchange}>
-                    { for PressureUnit::ALL.into_iter().map(|u| html! {
-                        <option value={u.symbol()} selected={u == props.field.unit}>{ u.symbol() }</option>
-                    }) }
-                </select>
-            </div>
-            <FieldMessages id={msg_id} messages={props.messages.clone()} />
-        </div>
+        <UnitInput label={props.label.clone()} path={props.path.clone()} slot={props.slot}
+            text={AttrValue::from(props.field.text.clone())}
+            unit={props.field.unit.symbol()}
+            units={PressureUnit::ALL.map(PressureUnit::symbol).to_vec()}
+            {on_unit} inputmode="decimal"
+            messages={props.messages.clone()} dispatch={props.dispatch.clone()} />
     }
 }
