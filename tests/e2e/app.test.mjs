@@ -9,52 +9,18 @@
 //   5. targets: change a threshold, add and remove one
 //   6. the main flow with the keyboard only
 //   7. screenshots at tablet and phone sizes and in the dark theme
-import { test, before, after } from 'node:test';
+import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import { serve, launch, open, checkWithCli, rounded, screenshotPath } from './harness.mjs';
+import { suite, open, checkWithCli, rounded, screenshotPath, until, caseJsonOf } from './harness.mjs';
 
-let server;
-let chrome;
+const env = suite();
 
-before(async () => {
-  server = await serve();
-  chrome = await launch();
-});
 
-after(async () => {
-  await chrome?.close();
-  server?.stop();
-});
-
-/** Polls `probe` until it returns a truthy value (or throws after `ms`). */
-async function until(probe, what, ms = 10000) {
-  const start = Date.now();
-  let last;
-  for (;;) {
-    try {
-      last = await probe();
-      if (last) return last;
-    } catch (e) {
-      last = e;
-    }
-    if (Date.now() - start > ms) throw new Error(`timed out waiting for ${what}: ${last}`);
-    await new Promise((r) => setTimeout(r, 50));
-  }
-}
-
-/**
- * The page's "case as JSON", opening its panel without moving the focus
- * (a closed panel's text box is not in the accessibility tree).
- */
-async function caseJson(page) {
-  await page.locator('.case-json details').evaluate((d) => { d.open = true; });
-  return page.getByRole('textbox', { name: 'Case as JSON' }).inputValue();
-}
 
 /** Waits until the page's case differs from `before`, then returns it. */
 const caseChange = (page, before) =>
   until(async () => {
-    const now = await caseJson(page);
+    const now = await caseJsonOf(page);
     return now !== before && now;
   }, 'the case to change');
 
@@ -65,7 +31,7 @@ const organ = (page, label) => page.getByRole('region', { name: label, exact: tr
  * report for the page's own case is on screen, and nothing else is.
  */
 async function matchesCli(page) {
-  const json = await caseJson(page);
+  const json = await caseJsonOf(page);
   const report = checkWithCli(json);
   assert.equal(
     await page.locator('section.organ').count(),
@@ -94,7 +60,7 @@ async function matchesCli(page) {
 }
 
 test('the demo check shows the core\'s numbers', async () => {
-  const { page, context, foreign, problems } = await open(chrome.browser, server.url);
+  const { page, context, foreign, problems } = await open(env.chrome.browser, env.server.url);
   const report = await matchesCli(page);
   const brain = report.organs.find((o) => o.organ === 'brain');
   const cpp = brain.metrics.find((m) => m.metric === 'perfusion');
@@ -112,8 +78,8 @@ test('the demo check shows the core\'s numbers', async () => {
 });
 
 test('a new position and a new reading change the results as the core predicts', async () => {
-  const { page, context } = await open(chrome.browser, server.url);
-  const first = await caseJson(page);
+  const { page, context } = await open(env.chrome.browser, env.server.url);
+  const first = await caseJsonOf(page);
   const cppBefore = await organ(page, 'Brain').getByRole('group', { name: 'CPP', exact: true }).locator('.value').textContent();
 
   await page.getByLabel('Posture').selectOption({ label: 'head-up (backrest raised)' });
@@ -142,21 +108,21 @@ test('a new position and a new reading change the results as the core predicts',
   // The demo button asks first: refused, nothing changes; accepted, the demo returns.
   page.once('dialog', (d) => d.dismiss());
   await page.getByRole('button', { name: 'Reload the demo case' }).click();
-  assert.equal(await caseJson(page), fourth);
+  assert.equal(await caseJsonOf(page), fourth);
   page.once('dialog', (d) => d.accept());
   await page.getByRole('button', { name: 'Reload the demo case' }).click();
-  await until(async () => (await caseJson(page)) === first, 'the demo case back');
+  await until(async () => (await caseJsonOf(page)) === first, 'the demo case back');
   await context.close();
 });
 
 test('a unit switch converts the box and leaves the results unchanged', async () => {
-  const { page, context } = await open(chrome.browser, server.url);
+  const { page, context } = await open(env.chrome.browser, env.server.url);
   const before = await matchesCli(page);
   const radial = page.getByRole('group', { name: /Arterial source 1/ });
   const mean = radial.getByLabel('Mean', { exact: true });
   await radial.getByLabel('Mean unit').selectOption('kPa');
   await until(async () => (await mean.inputValue()) === '9.87', 'the mean in kPa');
-  const json = await caseJson(page);
+  const json = await caseJsonOf(page);
   assert.match(JSON.parse(json).arterial[0].mean, / kPa$/);
   const after = await matchesCli(page);
   const values = (r) => r.organs.flatMap((o) => o.metrics.map((m) => rounded(m.value_mmhg)));
@@ -177,7 +143,7 @@ test('a unit switch converts the box and leaves the results unchanged', async ()
 });
 
 test('a bad entry keeps its text, shows its message beside it and marks results stale', async () => {
-  const { page, context } = await open(chrome.browser, server.url);
+  const { page, context } = await open(env.chrome.browser, env.server.url);
   const cpp = organ(page, 'Brain').getByRole('group', { name: 'CPP', exact: true }).locator('.value');
   const good = await cpp.textContent();
   const radial = page.getByRole('group', { name: /Arterial source 1/ });
@@ -207,17 +173,17 @@ test('a bad entry keeps its text, shows its message beside it and marks results 
   await systolic.fill('104');
   await until(async () => (await page.locator('.problems').count()) === 0, 'the problems to clear');
   assert.match(await live.textContent(), /targets? (is|are) missed|Every evaluated target is met/);
-  assert.equal(JSON.parse(await caseJson(page)).position.posture, 'prone');
+  assert.equal(JSON.parse(await caseJsonOf(page)).position.posture, 'prone');
   await matchesCli(page);
   await context.close();
 });
 
 test('targets can be changed, added and removed, each with its source', async () => {
-  const { page, context } = await open(chrome.browser, server.url);
+  const { page, context } = await open(env.chrome.browser, env.server.url);
   await page.getByText(/Change, add or remove targets/).click();
   const first = page.getByRole('group', { name: 'Target 1: Brain: CPP' });
   assert.ok((await first.getByLabel('Source').inputValue()).includes('Brain Trauma Foundation'));
-  const before = await caseJson(page);
+  const before = await caseJsonOf(page);
   await first.getByLabel('Threshold', { exact: true }).fill('70');
   const changed = await caseChange(page, before);
   assert.equal(JSON.parse(changed).targets[0].at_least, '70 mmHg');
@@ -231,7 +197,7 @@ test('targets can be changed, added and removed, each with its source', async ()
   await added.getByLabel('Threshold', { exact: true }).fill('55');
   await added.getByLabel('Source').fill('unit protocol');
   const withNew = await until(async () => {
-    const j = JSON.parse(await caseJson(page));
+    const j = JSON.parse(await caseJsonOf(page));
     return j.targets.length === count + 1 && j.targets[count].source === 'unit protocol' && j;
   }, 'the new target');
   assert.equal(withNew.targets[count].at_least, '55 mmHg');
@@ -239,14 +205,14 @@ test('targets can be changed, added and removed, each with its source', async ()
   assert.ok((await organ(page, 'Brain').textContent()).includes('Target source: unit protocol'));
 
   await page.getByRole('button', { name: `Remove target ${count + 1}` }).click();
-  await until(async () => JSON.parse(await caseJson(page)).targets.length === count, 'the removal');
+  await until(async () => JSON.parse(await caseJsonOf(page)).targets.length === count, 'the removal');
   await page.getByRole('button', { name: 'Restore default targets' }).click();
-  await until(async () => JSON.parse(await caseJson(page)).targets === undefined, 'the defaults');
+  await until(async () => JSON.parse(await caseJsonOf(page)).targets === undefined, 'the defaults');
   await context.close();
 });
 
 test('the main flow works with the keyboard alone', async () => {
-  const { page, context } = await open(chrome.browser, server.url);
+  const { page, context } = await open(env.chrome.browser, env.server.url);
   const focused = () => page.evaluate(() => document.activeElement?.id || document.activeElement?.textContent);
   await page.keyboard.press('Tab');
   assert.equal(await focused(), 'Skip to results');
@@ -259,7 +225,7 @@ test('the main flow works with the keyboard alone', async () => {
     throw new Error(`Tab never reached ${id}`);
   };
   await tabTo('f-position-posture');
-  const before = await caseJson(page);
+  const before = await caseJsonOf(page);
   await page.keyboard.press('ArrowDown');
   const moved = await caseChange(page, before);
   assert.equal(JSON.parse(moved).position.posture, 'sitting');
@@ -272,7 +238,7 @@ test('the main flow works with the keyboard alone', async () => {
   assert.equal(await focused(), '+5');
   await page.keyboard.press('Enter');
   const stepped = await until(async () => {
-    const j = JSON.parse(await caseJson(page));
+    const j = JSON.parse(await caseJsonOf(page));
     return j.position.backrest_deg === 45 && j;
   }, 'backrest 45 after +5');
   assert.equal(stepped.position.posture, 'sitting');
@@ -296,7 +262,7 @@ const sizes = [
 
 for (const [name, viewport, colorScheme] of sizes) {
   test(`screenshot ${name}: nothing overflows, controls are large and labelled, the caution shows`, async () => {
-    const { page, context } = await open(chrome.browser, server.url, { viewport, colorScheme });
+    const { page, context } = await open(env.chrome.browser, env.server.url, { viewport, colorScheme });
     const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
     assert.ok(overflow <= 0, `page wider than the screen by ${overflow}px`);
     const caution = await page.getByRole('complementary', { name: 'Caution' }).boundingBox();
@@ -321,7 +287,7 @@ for (const [name, viewport, colorScheme] of sizes) {
 }
 
 test('the theme toggle gives the dark theme, remembers it, and prints one light page', async () => {
-  const { page, context } = await open(chrome.browser, server.url, { colorScheme: 'light' });
+  const { page, context } = await open(env.chrome.browser, env.server.url, { colorScheme: 'light' });
   await page.getByRole('button', { name: /^Theme: device/ }).click();
   await until(async () => (await page.evaluate(() => document.documentElement.dataset.theme)) === 'dark', 'dark');
   await page.screenshot({ path: screenshotPath('dark-toggle') });

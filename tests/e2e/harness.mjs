@@ -5,6 +5,7 @@ import { mkdtempSync, writeFileSync, existsSync, mkdirSync, rmSync, cpSync } fro
 import { tmpdir } from 'node:os';
 import { join, dirname } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { before, after } from 'node:test';
 import { chromium } from 'playwright-core';
 
 export const root = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
@@ -168,8 +169,26 @@ export function screenshotPath(name) {
   return join(shots, `${name}.png`);
 }
 
+/**
+ * The set-up most test files share: one static server over dist/ and one
+ * Chromium for the whole file. Returns an object whose `server` and
+ * `chrome` are filled in before the first test.
+ */
+export function suite() {
+  const env = {};
+  before(async () => {
+    env.server = await serve();
+    env.chrome = await launch();
+  });
+  after(async () => {
+    await env.chrome?.close();
+    env.server?.stop();
+  });
+  return env;
+}
+
 /** Polls `probe` until it returns a truthy value (or throws after `ms`). */
-export async function until(probe, what, ms = 10000) {
+export async function until(probe, what, ms = 15000) {
   const start = Date.now();
   let last;
   for (;;) {

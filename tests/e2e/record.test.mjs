@@ -8,13 +8,13 @@
 //   4. "same as last, new time" adds samples; rules change what counts
 //   5. a position change changes the exposure as the CLI predicts
 //   6. screenshots of the record panel at tablet and phone sizes, dark, print
-import { test, before, after } from 'node:test';
+import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { readFileSync, writeFileSync, mkdtempSync, rmSync } from 'node:fs';
 import { execFileSync } from 'node:child_process';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { serve, launch, open, recordWithCli, screenshotPath, root, cli } from './harness.mjs';
+import { suite, open, recordWithCli, screenshotPath, root, cli, until, caseJsonOf } from './harness.mjs';
 
 const demoRecord = join(root, 'examples', 'beach-chair-record.csv');
 const demoCsv = readFileSync(demoRecord, 'utf8');
@@ -24,40 +24,9 @@ const cells = (csv) => csv.split('\n').filter((l) => l && !l.startsWith('#')).sl
   .reduce((n, l) => n + l.split(',').slice(1).filter((c) => c.trim() !== '').length, 0);
 const demoSamples = cells(demoCsv);
 
-let server;
-let chrome;
+const env = suite();
 
-before(async () => {
-  server = await serve();
-  chrome = await launch();
-});
 
-after(async () => {
-  await chrome?.close();
-  server?.stop();
-});
-
-/** Polls `probe` until it returns a truthy value (or throws after `ms`). */
-async function until(probe, what, ms = 15000) {
-  const start = Date.now();
-  let last;
-  for (;;) {
-    try {
-      last = await probe();
-      if (last) return last;
-    } catch (e) {
-      last = e;
-    }
-    if (Date.now() - start > ms) throw new Error(`timed out waiting for ${what}: ${last}`);
-    await new Promise((r) => setTimeout(r, 50));
-  }
-}
-
-/** The page's "case as JSON" (the last good check, without its record). */
-async function caseJson(page) {
-  await page.locator('.case-json details').evaluate((d) => { d.open = true; });
-  return page.getByRole('textbox', { name: 'Case as JSON' }).inputValue();
-}
 
 const panel = (page) => page.getByRole('region', { name: 'Record over time' });
 
@@ -133,8 +102,8 @@ async function samples(page) {
 }
 
 test('a record file opened on the page gives the CLI\'s exposure, charted', async () => {
-  const { page, context, foreign, problems } = await open(chrome.browser, server.url);
-  const json = await caseJson(page);
+  const { page, context, foreign, problems } = await open(env.chrome.browser, env.server.url);
+  const json = await caseJsonOf(page);
   await openFile(page, 'beach-chair-record.csv', demoCsv);
   const cpp = panel(page).getByRole('region', { name: 'Brain · CPP' });
   await cpp.waitFor();
@@ -161,7 +130,7 @@ test('a record file opened on the page gives the CLI\'s exposure, charted', asyn
 });
 
 test('a bad file shows every problem with its line and column and imports nothing', async () => {
-  const { page, context } = await open(chrome.browser, server.url);
+  const { page, context } = await open(env.chrome.browser, env.server.url);
   await openFile(page, 'beach-chair-record.csv', demoCsv);
   await until(async () => (await samples(page)) === demoSamples, 'the demo record');
   const bad = 'elapsed_s,radial line.mean [mmHg],femoral.mean [mmHg]\n0,74,1\nx,70,\n5,700,\n3,70,\n';
@@ -171,7 +140,7 @@ test('a bad file shows every problem with its line and column and imports nothin
   // The CLI names the same problems, in the same words.
   let stderr = '';
   try {
-    recordWithCli(bad, await caseJson(page));
+    recordWithCli(bad, await caseJsonOf(page));
   } catch (e) {
     stderr = String(e.stderr);
   }
@@ -207,15 +176,15 @@ function eightHours(rows = 28800) {
 }
 
 test('an eight-hour record at 1 Hz imports, analyses and charts without freezing the page', async (t) => {
-  const { page, context, problems } = await open(chrome.browser, server.url);
+  const { page, context, problems } = await open(env.chrome.browser, env.server.url);
   // The record's CVP and ICP need readings in the case to give their levels.
   for (const [name, value] of [['ICP', '10'], ['CVP', '6']]) {
     await page.getByLabel('Pressure to add').selectOption({ label: name });
     await page.getByRole('button', { name: 'Add measured' }).click();
     await page.getByRole('group', { name: `${name} (measured)` }).getByLabel(name, { exact: true }).fill(value);
   }
-  await until(async () => JSON.parse(await caseJson(page)).readings?.cvp, 'the CVP reading');
-  const json = await caseJson(page);
+  await until(async () => JSON.parse(await caseJsonOf(page)).readings?.cvp, 'the CVP reading');
+  const json = await caseJsonOf(page);
   const csv = eightHours();
   await page.evaluate(() => {
     window.longest = 0;
@@ -258,7 +227,7 @@ test('an eight-hour record at 1 Hz imports, analyses and charts without freezing
 });
 
 test('"same as last, new time" adds the readings on screen; the rules change what counts', async () => {
-  const { page, context } = await open(chrome.browser, server.url);
+  const { page, context } = await open(env.chrome.browser, env.server.url);
   const p = panel(page);
   await p.getByLabel('Time of the entry').selectOption('elapsed');
   const when = p.getByLabel('Elapsed time');
@@ -281,7 +250,7 @@ test('"same as last, new time" adds the readings on screen; the rules change wha
   assert.equal(await samples(page), 12);
   // The line dips; the next sample takes the new value.
   await page.getByRole('group', { name: /Arterial source 1/ }).getByLabel('Mean', { exact: true }).fill('60');
-  await until(async () => JSON.parse(await caseJson(page)).arterial[0].mean === '60 mmHg', 'the new mean');
+  await until(async () => JSON.parse(await caseJsonOf(page)).arterial[0].mean === '60 mmHg', 'the new mean');
   await when.fill('+5');
   await add.click();
   await until(async () => (await samples(page)) === 18, 'a third sample');
@@ -305,14 +274,14 @@ test('"same as last, new time" adds the readings on screen; the rules change wha
 });
 
 test('a position change changes the exposure as the CLI predicts', async () => {
-  const { page, context, foreign } = await open(chrome.browser, server.url);
+  const { page, context, foreign } = await open(env.chrome.browser, env.server.url);
   await openFile(page, 'beach-chair-record.csv', demoCsv);
   const p = panel(page);
   const cpp = p.getByRole('group', { name: 'CPP at least 60 mmHg', exact: true });
   await cpp.waitFor();
   const before = await cpp.locator('.x-area').textContent();
   await page.getByLabel('Posture').selectOption({ label: 'supine' });
-  await until(async () => JSON.parse(await caseJson(page)).position.posture === 'supine', 'supine on screen');
+  await until(async () => JSON.parse(await caseJsonOf(page)).position.posture === 'supine', 'supine on screen');
   await p.getByLabel('Time of the entry').selectOption('elapsed');
   await p.getByLabel('Elapsed time').fill('0:10:00');
   await p.getByRole('button', { name: /Mark position change/ }).click();
@@ -336,7 +305,7 @@ test('a position change changes the exposure as the CLI predicts', async () => {
   const now = await download(page, 'Download case with record (JSON)');
   assert.equal(series, seriesWithCli(demoCsv, now), 'the series is the CLI\'s --series');
   // Downloads are made on the device: nothing but the page's own blobs.
-  const origin = server.url.replace(/\/$/, '');
+  const origin = env.server.url.replace(/\/$/, '');
   assert.deepEqual(foreign.filter((u) => !u.startsWith(`blob:${origin}/`)), []);
   await context.close();
 });
@@ -350,7 +319,7 @@ const sizes = [
 
 for (const [name, viewport, colorScheme] of sizes) {
   test(`screenshot ${name}: the record panel fits, its controls are large and labelled`, async () => {
-    const { page, context } = await open(chrome.browser, server.url, { viewport, colorScheme });
+    const { page, context } = await open(env.chrome.browser, env.server.url, { viewport, colorScheme });
     await openFile(page, 'beach-chair-record.csv', demoCsv);
     const p = panel(page);
     await p.getByRole('region', { name: 'Brain · CPP' }).waitFor();
@@ -378,7 +347,7 @@ for (const [name, viewport, colorScheme] of sizes) {
 }
 
 test('the printed handover carries the exposure numbers', async () => {
-  const { page, context } = await open(chrome.browser, server.url);
+  const { page, context } = await open(env.chrome.browser, env.server.url);
   await openFile(page, 'beach-chair-record.csv', demoCsv);
   await panel(page).getByRole('region', { name: 'Brain · CPP' }).waitFor();
   await page.emulateMedia({ media: 'print' });

@@ -6,23 +6,12 @@
 //   3. a link pasted into the open app's address bar opens too
 //   4. malformed, truncated and hostile fragments: a notice, nothing runs
 //   5. screenshots of the dialog at tablet and phone sizes
-import { test, before, after } from 'node:test';
+import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { deflateRawSync } from 'node:zlib';
-import { serve, launch, open, until, caseJsonOf, screenshotPath } from './harness.mjs';
+import { suite, open, until, caseJsonOf, screenshotPath } from './harness.mjs';
 
-let server;
-let chrome;
-
-before(async () => {
-  server = await serve();
-  chrome = await launch();
-});
-
-after(async () => {
-  await chrome?.close();
-  server?.stop();
-});
+const env = suite();
 
 const radial = (page) => page.getByRole('group', { name: /Arterial source 1/ });
 
@@ -39,7 +28,7 @@ async function shareLink(page) {
 }
 
 test('a share link opens the same check in a fresh browser', async () => {
-  const a = await open(chrome.browser, server.url);
+  const a = await open(env.chrome.browser, env.server.url);
   await radial(a.page).getByLabel('Mean', { exact: true }).fill('86');
   await a.page.getByLabel('Posture').selectOption({ label: 'head-up (backrest raised)' });
   const json = await until(async () => {
@@ -47,7 +36,7 @@ test('a share link opens the same check in a fresh browser', async () => {
     return JSON.parse(j).position.posture === 'head_up' && JSON.parse(j).arterial[0].mean === '86 mmHg' && j;
   }, 'the edited case');
   const { dialog, link } = await shareLink(a.page);
-  assert.ok(link.startsWith(`${server.url}#p1.`), link);
+  assert.ok(link.startsWith(`${env.server.url}#p1.`), link);
   assert.ok(link.length < 1000, `${link.length} characters`);
   // The QR code is one path, dark on white.
   const qr = await dialog.locator('svg.qr path').getAttribute('d');
@@ -57,11 +46,11 @@ test('a share link opens the same check in a fresh browser', async () => {
   await dialog.getByRole('button', { name: 'Close' }).click();
   await until(async () => !(await dialog.isVisible()), 'the dialog to close');
 
-  const b = await open(chrome.browser, server.url, { address: link });
+  const b = await open(env.chrome.browser, env.server.url, { address: link });
   await b.page.getByRole('status').filter({ hasText: 'Opened the check from the shared link' }).waitFor();
   assert.equal(await caseJsonOf(b.page), json, 'the same case');
   assert.equal(await radial(b.page).getByLabel('Mean', { exact: true }).inputValue(), '86');
-  assert.equal(b.page.url(), server.url, 'the fragment is gone from the address bar');
+  assert.equal(b.page.url(), env.server.url, 'the fragment is gone from the address bar');
   // A reload shows the check as saved, not the link again.
   await radial(b.page).getByLabel('Mean', { exact: true }).fill('87');
   await b.page.reload();
@@ -74,11 +63,11 @@ test('a share link opens the same check in a fresh browser', async () => {
 });
 
 test('a link over a saved check keeps that check, with a way back', async () => {
-  const a = await open(chrome.browser, server.url);
+  const a = await open(env.chrome.browser, env.server.url);
   const { link } = await shareLink(a.page);
   await a.context.close();
 
-  const { page, context } = await open(chrome.browser, server.url);
+  const { page, context } = await open(env.chrome.browser, env.server.url);
   await radial(page).getByLabel('Mean', { exact: true }).fill('66');
   const mine = await until(async () => {
     const j = await caseJsonOf(page);
@@ -94,13 +83,13 @@ test('a link over a saved check keeps that check, with a way back', async () => 
 });
 
 test('a link pasted into the open app opens too', async () => {
-  const a = await open(chrome.browser, server.url);
+  const a = await open(env.chrome.browser, env.server.url);
   await radial(a.page).getByLabel('Mean', { exact: true }).fill('92');
   await until(async () => JSON.parse(await caseJsonOf(a.page)).arterial[0].mean === '92 mmHg', 'the edit');
   const { link } = await shareLink(a.page);
   await a.context.close();
 
-  const { page, context } = await open(chrome.browser, server.url);
+  const { page, context } = await open(env.chrome.browser, env.server.url);
   await page.evaluate((hash) => { window.location.hash = hash; }, link.split('#')[1]);
   await until(async () => (await radial(page).getByLabel('Mean', { exact: true }).inputValue()) === '92', 'the shared mean');
   await until(async () => !page.url().includes('#'), 'the fragment to leave the address bar');
@@ -123,7 +112,7 @@ const fragments = [
 
 for (const [what, fragment] of fragments) {
   test(`${what}: a notice, and nothing runs`, async () => {
-    const { page, context, foreign, problems } = await open(chrome.browser, server.url, { address: server.url + fragment });
+    const { page, context, foreign, problems } = await open(env.chrome.browser, env.server.url, { address: env.server.url + fragment });
     const dialogs = [];
     page.on('dialog', (d) => { dialogs.push(d.message()); d.dismiss(); });
     const notice = page.getByRole('alert').filter({ hasText: 'The link could not be opened' });
@@ -132,7 +121,7 @@ for (const [what, fragment] of fragments) {
     await page.getByRole('note').filter({ hasText: 'Invented demo case' }).waitFor();
     assert.equal(await page.evaluate(() => window.__ran), undefined, 'no script ran');
     assert.equal(await page.locator('img[src="x"], body script').count(), 0, 'no markup from the link');
-    assert.equal(page.url(), server.url, 'the fragment is gone');
+    assert.equal(page.url(), env.server.url, 'the fragment is gone');
     // The app still works.
     await radial(page).getByLabel('Mean', { exact: true }).fill('80');
     await until(async () => JSON.parse(await caseJsonOf(page)).arterial[0].mean === '80 mmHg', 'an edit');
@@ -152,7 +141,7 @@ test('a valid case with markup in a label shows it as text only', async () => {
     position: { posture: 'supine' },
     arterial: [{ id: label, method: 'transducer', level: 'heart', mean: '80 mmHg' }],
   });
-  const { page, context } = await open(chrome.browser, server.url, { address: `${server.url}#${fragmentOf(json)}` });
+  const { page, context } = await open(env.chrome.browser, env.server.url, { address: `${env.server.url}#${fragmentOf(json)}` });
   page.on('dialog', () => assert.fail('a dialog opened'));
   await page.getByRole('status').filter({ hasText: 'Opened the check from the shared link' }).waitFor();
   assert.equal(await page.getByLabel('Short label (no names)').inputValue(), label);
@@ -162,7 +151,7 @@ test('a valid case with markup in a label shows it as text only', async () => {
 
 for (const [name, viewport] of [['share-tablet', { width: 768, height: 1024 }], ['share-phone', { width: 390, height: 844 }]]) {
   test(`screenshot ${name}: the dialog fits`, async () => {
-    const { page, context } = await open(chrome.browser, server.url, { viewport });
+    const { page, context } = await open(env.chrome.browser, env.server.url, { viewport });
     const { dialog } = await shareLink(page);
     const box = await dialog.boundingBox();
     assert.ok(box.x >= 0 && box.x + box.width <= viewport.width, 'the dialog fits the width');

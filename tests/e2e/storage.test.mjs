@@ -6,29 +6,18 @@
 //   2. an unreadable saved state: notice, raw copy downloaded, app works
 //   3. a new check starts blank, with no results of the last one; undo
 //   4. the stored envelope is our own, versioned, and lean
-import { test, before, after } from 'node:test';
+import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
-import { serve, launch, open, until, caseJsonOf, screenshotPath } from './harness.mjs';
+import { suite, open, until, caseJsonOf, screenshotPath } from './harness.mjs';
 
-let server;
-let chrome;
-
-before(async () => {
-  server = await serve();
-  chrome = await launch();
-});
-
-after(async () => {
-  await chrome?.close();
-  server?.stop();
-});
+const env = suite();
 
 const radial = (page) => page.getByRole('group', { name: /Arterial source 1/ });
 const ready = (page) => page.getByRole('heading', { name: "At the organs' own height" }).waitFor();
 
 test('a reload brings back every box as typed, mistakes, units and theme included', async () => {
-  const { page, context, foreign, problems } = await open(chrome.browser, server.url);
+  const { page, context, foreign, problems } = await open(env.chrome.browser, env.server.url);
   await radial(page).getByLabel('Mean', { exact: true }).fill('81');
   await radial(page).getByLabel('Systolic unit').selectOption('kPa');
   await page.getByLabel('Pressure to add').selectOption({ label: 'ICP' });
@@ -62,7 +51,7 @@ test('a reload brings back every box as typed, mistakes, units and theme include
 });
 
 test('an unreadable saved state is offered for download and the app still works', async () => {
-  const { page, context, problems } = await open(chrome.browser, server.url);
+  const { page, context, problems } = await open(env.chrome.browser, env.server.url);
   const broken = '{"format":"plumbline-state","version":1,"theme":"dark","case":{"format":"plumbline-cas';
   await page.evaluate((text) => localStorage.setItem('plumbline.state', text), broken);
   await page.reload();
@@ -98,7 +87,7 @@ test('an unreadable saved state is offered for download and the app still works'
 });
 
 test('a new check starts blank with no results of the last one, and can be undone', async () => {
-  const { page, context } = await open(chrome.browser, server.url);
+  const { page, context } = await open(env.chrome.browser, env.server.url);
   await radial(page).getByLabel('Mean', { exact: true }).fill('83');
   const before = await until(async () => {
     const j = await caseJsonOf(page);
@@ -126,7 +115,7 @@ test('a new check starts blank with no results of the last one, and can be undon
 });
 
 test('the saved state is a versioned envelope of our own, and holds no record in it', async () => {
-  const { page, context } = await open(chrome.browser, server.url);
+  const { page, context } = await open(env.chrome.browser, env.server.url);
   await radial(page).getByLabel('Mean', { exact: true }).fill('77');
   const saved = await until(async () => {
     const text = await page.evaluate(() => localStorage.getItem('plumbline.state'));
