@@ -9,7 +9,7 @@
 
 use crate::case::{Case, VERSION};
 use crate::error::{Errors, Warning};
-use crate::evaluate::{self, baseline_inflow, organ_level, Ctx, Driver, Missing, Value};
+use crate::evaluate::{self, baseline_inflow, organ_level, Ctx, Input, Missing, Term, Value};
 use crate::geometry::{self, Lie};
 use crate::landmark::Landmark;
 use crate::organ::{Metric, Organ};
@@ -215,8 +215,8 @@ fn metric_report(
     value: Value,
 ) -> MetricReport {
     let scene = ctx.scene();
-    let source = match value.driver {
-        Some(Driver::Arterial { source, .. }) => Some(source),
+    let source = match value.driver().map(|t| t.input) {
+        Some(Input::Arterial(source, _)) => Some(source),
         _ => None,
     };
     let (contributions, down, up) = spread(shifted, value.value, |c| {
@@ -367,9 +367,10 @@ fn target_report(
 }
 
 /// What `site` must read for the metric to equal `thr`: the metric is
-/// linear in the driving reading, so one evaluation per site suffices.
-fn needed(current: Pressure, value: Pressure, thr: Pressure, slope: f64) -> Pressure {
-    current + (thr - value) / slope
+/// linear in the driving reading (`scale` per unit of it), so one
+/// evaluation per site suffices.
+fn needed(current: Pressure, value: Pressure, thr: Pressure, scale: f64) -> Pressure {
+    current + (thr - value) / scale
 }
 
 fn required(
@@ -382,11 +383,15 @@ fn required(
 ) -> Vec<Required> {
     let scene = ctx.scene();
     let mut out = Vec::new();
-    match value.driver {
+    match value.driver() {
         None => {}
-        Some(Driver::Reading { quantity, slope }) => {
+        Some(Term {
+            input: Input::Reading(quantity),
+            scale,
+            ..
+        }) => {
             if let Some(r) = scene.readings.get(&quantity) {
-                let need = needed(r.value, value.value, thr, slope);
+                let need = needed(r.value, value.value, thr, scale);
                 out.push(required_row(
                     quantity.label().to_owned(),
                     None,
@@ -397,23 +402,26 @@ fn required(
                 ));
             }
         }
-        Some(Driver::Arterial { .. }) => {
+        Some(Term {
+            input: Input::Arterial(..),
+            ..
+        }) => {
             for (i, a) in scene.arterial.iter().enumerate() {
                 let Ok(v) = evaluate::metric(ctx, organ, metric, Some(i)) else {
                     continue;
                 };
-                let Some(Driver::Arterial {
-                    source,
-                    component,
-                    slope,
-                }) = v.driver
+                let Some(Term {
+                    input: Input::Arterial(source, component),
+                    scale,
+                    ..
+                }) = v.driver()
                 else {
                     continue;
                 };
                 let Some(current) = a.component(component).filter(|_| source == i) else {
                     continue;
                 };
-                let need = needed(current, v.value, thr, slope);
+                let need = needed(current, v.value, thr, scale);
                 out.push(required_row(
                     a.id.clone(),
                     Some(component),
@@ -644,10 +652,7 @@ fn sweeps(ctx: &Ctx<'_>) -> Vec<Sweep> {
         let Ok(now) = evaluate::metric(ctx, target.organ, target.metric, None) else {
             continue;
         };
-        let Some(Driver::Arterial {
-            source, component, ..
-        }) = now.driver
-        else {
+        let Some(Input::Arterial(source, component)) = now.driver().map(|t| t.input) else {
             continue;
         };
         let Ok((thr, at_least, _)) = threshold(ctx, level, target) else {
@@ -663,10 +668,10 @@ fn sweeps(ctx: &Ctx<'_>) -> Vec<Sweep> {
             .iter()
             .filter_map(|(deg, c)| {
                 let v = evaluate::metric(c, target.organ, target.metric, Some(source)).ok()?;
-                let slope = v.driver?.slope();
+                let scale = v.driver()?.scale;
                 Some(SweepPoint {
                     backrest_deg: *deg,
-                    needed_mmhg: to_mmhg(needed(current, v.value, thr, slope)),
+                    needed_mmhg: to_mmhg(needed(current, v.value, thr, scale)),
                 })
             })
             .collect();

@@ -25,37 +25,6 @@ pub struct Step {
     pub value: Pressure,
 }
 
-/// The input a site reading would have to change to move a metric, and how
-/// much the metric moves per mmHg of it.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub enum Driver {
-    /// An arterial source's component.
-    Arterial {
-        /// Index of the source.
-        source: usize,
-        /// Which component.
-        component: Component,
-        /// Metric change per unit change of the reading.
-        slope: f64,
-    },
-    /// A non-arterial reading (the aortic relaxation pressure in CPR).
-    Reading {
-        /// Which reading.
-        quantity: Quantity,
-        /// Metric change per unit change of the reading.
-        slope: f64,
-    },
-}
-
-impl Driver {
-    /// Metric change per unit change of the driving reading.
-    pub fn slope(self) -> f64 {
-        match self {
-            Driver::Arterial { slope, .. } | Driver::Reading { slope, .. } => slope,
-        }
-    }
-}
-
 /// Which outflow won the waterfall.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Outflow {
@@ -149,14 +118,23 @@ pub struct Value {
     pub value: Pressure,
     /// How it was computed.
     pub steps: Vec<Step>,
-    /// The reading that drives it, for required-reading and sweep answers.
-    pub driver: Option<Driver>,
+    /// Whether a site reading can bring it to a target: false for a
+    /// surrounding pressure (ICP, CSF, IAP), which no arterial reading moves.
+    pub adjustable: bool,
     /// The waterfall's choice, for perfusion metrics.
     pub outflow: Option<Outflow>,
     /// Assumed values it used.
     pub assumed: Vec<Quantity>,
     /// The metric as a formula of its inputs, for this position.
     pub form: Form,
+}
+
+impl Value {
+    /// The reading a site would have to change to move the metric, with
+    /// the metric's change per unit of it (`scale`): its form's lead term.
+    pub fn driver(&self) -> Option<Term> {
+        self.adjustable.then_some(self.form.lead)
+    }
 }
 
 /// Why a metric could not be computed: the things to add, in words.
@@ -431,7 +409,7 @@ pub fn metric(
             Ok(Value {
                 value,
                 steps,
-                driver: Some(mean_driver(i, 1.0)),
+                adjustable: true,
                 outflow: None,
                 assumed,
                 form: single(lead),
@@ -443,7 +421,7 @@ pub fn metric(
             Ok(Value {
                 value,
                 steps,
-                driver: None,
+                adjustable: false,
                 outflow: None,
                 assumed,
                 form: single(lead),
@@ -471,14 +449,10 @@ pub fn metric(
                 what: format!("{label} = {} − {} = {}", mm(aortic), mm(atrial), mm(value)),
                 value,
             });
-            let driver = Driver::Reading {
-                quantity: Quantity::CprAorticRelaxation,
-                slope: 1.0,
-            };
             Ok(Value {
                 value,
                 steps,
-                driver: Some(driver),
+                adjustable: true,
                 outflow: None,
                 assumed,
                 form: Form {
@@ -495,7 +469,7 @@ pub fn metric(
                     .map(|v| (i, v))
             });
             let outflow = waterfall(ctx, &mut steps, &mut assumed, outflows, level);
-            let ((i, (inflow, lead)), (outflow, back)) = both(inflow, outflow)?;
+            let ((_, (inflow, lead)), (outflow, back)) = both(inflow, outflow)?;
             let value = inflow - outflow.value * factor;
             let times = if factor == 1.0 {
                 String::new()
@@ -511,15 +485,10 @@ pub fn metric(
                 ),
                 value,
             });
-            let driver = Driver::Arterial {
-                source: i,
-                component,
-                slope: 1.0,
-            };
             Ok(Value {
                 value,
                 steps,
-                driver: Some(driver),
+                adjustable: true,
                 outflow: Some(outflow),
                 assumed,
                 form: Form {
@@ -546,14 +515,6 @@ fn both<A, B>(a: Result<A, Missing>, b: Result<B, Missing>) -> Result<(A, B), Mi
                 .flat_map(|m| m.0)
                 .collect(),
         )),
-    }
-}
-
-fn mean_driver(source: usize, slope: f64) -> Driver {
-    Driver::Arterial {
-        source,
-        component: Component::Mean,
-        slope,
     }
 }
 
@@ -739,15 +700,10 @@ fn population(
         ),
         value,
     });
-    let driver = Driver::Arterial {
-        source: i,
-        component,
-        slope: factor,
-    };
     Ok(Value {
         value,
         steps,
-        driver: Some(driver),
+        adjustable: true,
         outflow: None,
         assumed,
         form: Form {
