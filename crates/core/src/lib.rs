@@ -27,3 +27,4 @@ pub mod scene;
 pub mod share;
 pub mod target;
 pub mod units;
+pub mod usual;

@@ -6,10 +6,11 @@ use std::collections::BTreeMap;
 
 use serde::Serialize;
 
+use crate::case::Case;
 use crate::evaluate::Input;
 use crate::reading::{Component, Method, Quantity};
 use crate::scene::Scene;
-use crate::units::{Pressure, PressureUnit};
+use crate::units::{Pressure, PressureEntry, PressureUnit};
 
 /// How a channel's samples fill the time between them.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
@@ -44,13 +45,38 @@ pub struct Channel {
 /// The name of an input as a channel name.
 pub fn channel_name(scene: &Scene, input: Input) -> String {
     match input {
-        Input::Arterial(i, c) => format!(
-            "{}.{}",
-            scene.arterial.get(i).map_or("?", |a| a.id.as_str()),
-            c.label()
-        ),
+        Input::Arterial(i, c) => {
+            arterial_channel(scene.arterial.get(i).map_or("?", |a| a.id.as_str()), c)
+        }
         Input::Reading(q) => q.key().to_owned(),
     }
+}
+
+/// The channel name of one component of an arterial source:
+/// `"radial line.mean"`.
+pub fn arterial_channel(id: &str, component: Component) -> String {
+    format!("{id}.{}", component.label())
+}
+
+/// Every reading a case holds, as channel name and value as entered: what
+/// one sample of the case adds to a record.
+pub fn case_readings(case: &Case) -> Vec<(String, PressureEntry)> {
+    let mut all = Vec::new();
+    for a in &case.arterial {
+        for (component, value) in [
+            (Component::Systolic, a.systolic),
+            (Component::Diastolic, a.diastolic),
+            (Component::Mean, a.mean),
+        ] {
+            if let Some(v) = value {
+                all.push((arterial_channel(&a.id, component), v));
+            }
+        }
+    }
+    for (q, r) in &case.readings {
+        all.push((q.key().to_owned(), r.value));
+    }
+    all
 }
 
 /// The input a channel name refers to in this case.

@@ -20,7 +20,10 @@ mod series;
 mod timeline;
 mod walk;
 
-pub use channel::{channel_input, channel_name, input_range, sampling_of, Channel, Sampling};
+pub use channel::{
+    arterial_channel, case_readings, channel_input, channel_name, input_range, sampling_of,
+    Channel, Sampling,
+};
 pub use exposure::{analyze, Exposure, NotAnalysed, TargetExposure, DEFINITIONS};
 pub use rules::{
     elapsed_words, Rules, DEFAULT_GAP_MAX_S, DEFAULT_HOLD_MAX_S, DEFAULT_MIN_EPISODE_S,

@@ -12,6 +12,7 @@ use plumbline_core::organ::{Metric, Organ};
 use plumbline_core::reading::{Level, Method, Quantity};
 use plumbline_core::target::TargetSpec;
 use plumbline_core::units::{LengthUnit, PressureEntry, PressureUnit, QuantityTextError};
+use plumbline_core::usual::{first_level, method_for, unit_for};
 
 use serde::{Deserialize, Serialize};
 
@@ -176,39 +177,6 @@ impl SourceForm {
     }
 }
 
-/// The method a new reading starts with: how each is usually taken.
-fn usual_method(quantity: Quantity) -> Method {
-    match quantity {
-        Quantity::Icp => Method::Probe,
-        Quantity::Csf => Method::DrainScale,
-        Quantity::Iop => Method::Tonometer,
-        Quantity::Compartment => Method::Needle,
-        Quantity::Cvp
-        | Quantity::Iap
-        | Quantity::Lvedp
-        | Quantity::CprAorticRelaxation
-        | Quantity::CprRightAtrialRelaxation => Method::Transducer,
-    }
-}
-
-/// The unit a method's scale is read in.
-fn unit_for(method: Method) -> PressureUnit {
-    if method.reads_a_water_column() {
-        PressureUnit::CmH2O
-    } else {
-        PressureUnit::MmHg
-    }
-}
-
-/// A first level for a new reading: the core's usual reference, else the
-/// first landmark the quantity accepts (an eye, a limb).
-fn first_level(quantity: Quantity) -> Landmark {
-    quantity.usual_level().unwrap_or(match quantity {
-        Quantity::Iop => Landmark::EyeLeft,
-        _ => Landmark::CalfLeft,
-    })
-}
-
 /// One measured reading other than arterial.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct ReadingForm {
@@ -235,7 +203,7 @@ impl ReadingForm {
 
     /// A new, empty reading of `quantity`, taken the usual way.
     pub fn new(quantity: Quantity) -> Self {
-        let method = usual_method(quantity);
+        let method = method_for(quantity);
         ReadingForm {
             value: PressureText::empty(unit_for(method)),
             method,
