@@ -14,7 +14,7 @@
 //! the last analysis with its charts laid out.
 
 pub mod entry;
-pub mod envelope;
+pub mod strip;
 pub mod trend;
 pub mod when;
 

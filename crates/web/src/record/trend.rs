@@ -11,7 +11,7 @@
 use plumbline_core::record::{elapsed_words, MetricSeries, TargetExposure};
 
 use crate::chart::{nice_step, Mark, Tick};
-use crate::record::envelope::{strip, Strip};
+use crate::record::strip::{strip, Strip};
 use crate::show::rounded;
 
 /// Chart width, SVG units.

@@ -31,7 +31,7 @@ impl Strip {
     }
 }
 
-/// The envelope of `points` (x never decreasing) over `columns` columns of
+/// The extent of `points` (x never decreasing) over `columns` columns of
 /// one unit each, the first starting at `x0`; points outside are clamped to
 /// the first or last column. `None` for no points or no columns.
 pub fn strip(points: &[(f64, f64)], x0: f64, columns: usize) -> Option<Strip> {
