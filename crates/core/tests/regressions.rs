@@ -41,3 +41,40 @@ fn a_required_reading_is_not_rounded_up_by_conversion_noise() {
         required.words
     );
 }
+
+/// A head-up angle measured with a level (issue 10) narrows every range
+/// the backrest drives, and the contributor says it was measured; a judged
+/// angle keeps its wider range.
+#[test]
+fn a_measured_backrest_narrows_the_range_it_drives() {
+    let case = |measured: bool| {
+        run(json!({
+            "patient": { "height": "176 cm" },
+            "position": { "posture": "head_up", "backrest_deg": 40, "backrest_measured": measured },
+            "arterial": [line("line", json!("heart"), "80 mmHg")],
+            "readings": { "icp": reading("12 mmHg", "probe", json!("tragus")) },
+        }))
+    };
+    let width = |report: &plumbline_core::report::Report| {
+        let cpp = metric(report, Organ::Brain, Metric::Perfusion);
+        let backrest = cpp
+            .contributions
+            .iter()
+            .find(|c| c.input.starts_with("backrest angle"))
+            .map(|c| (c.up_mmhg - c.down_mmhg, c.input.clone()));
+        (cpp.value_mmhg, backrest)
+    };
+    let (judged_value, judged) = width(&case(false));
+    let (measured_value, measured) = width(&case(true));
+    let (judged, measured) = (judged.unwrap(), measured.unwrap());
+    assert_eq!(
+        judged_value, measured_value,
+        "the value itself does not move"
+    );
+    assert!(measured.0 < judged.0 / 2.0, "{measured:?} vs {judged:?}");
+    assert!(
+        measured.1.contains("measured with a level"),
+        "{}",
+        measured.1
+    );
+}

@@ -12,7 +12,7 @@ use std::collections::BTreeMap;
 
 use serde::Serialize;
 
-use super::position::{ArmPlacement, Lie, Position};
+use super::position::{ArmPlacement, Lie, Position, ESTIMATED_BACKREST_DEG, MEASURED_BACKREST_DEG};
 use super::proportions::{self as prop, forward_cm, lateral_cm, standing};
 use crate::landmark::{Landmark, Side};
 use crate::units::{cm, to_cm, Length};
@@ -117,8 +117,10 @@ pub enum GeometryParam {
     BodyHeight,
     /// A segment's length (±4% when estimated from proportions, ±1 cm measured).
     Segment(Segment),
-    /// The backrest angle as read from the table (±5°).
+    /// The backrest angle as read from the bed's scale or judged (±5°).
     Backrest,
+    /// The backrest angle as measured with a level (±2°).
+    BackrestMeasured,
     /// The table tilt (±2°).
     Tilt,
     /// Roll about the body's long axis: how far from exactly on the back,
@@ -156,7 +158,8 @@ impl GeometryParam {
             GeometryParam::BodyHeight => 2.0,
             GeometryParam::Segment(s) if body.measured.contains_key(&s) => MEASURED_SEGMENT_CM,
             GeometryParam::Segment(s) => PROPORTION_SPREAD * body.segment_cm(s),
-            GeometryParam::Backrest => 5.0,
+            GeometryParam::Backrest => ESTIMATED_BACKREST_DEG,
+            GeometryParam::BackrestMeasured => MEASURED_BACKREST_DEG,
             GeometryParam::Tilt => 2.0,
             GeometryParam::Roll => 5.0,
             GeometryParam::NeckFlexion
@@ -181,6 +184,9 @@ impl GeometryParam {
                 format!("{} length from proportions ±{hw:.1} cm", s.label())
             }
             GeometryParam::Backrest => format!("backrest angle ±{hw:.0}°"),
+            GeometryParam::BackrestMeasured => {
+                format!("backrest angle (measured with a level) ±{hw:.0}°")
+            }
             GeometryParam::Tilt => format!("table tilt ±{hw:.0}°"),
             GeometryParam::Roll => {
                 format!("roll about the long axis ±{hw:.0}° (twice that on a side)")
@@ -201,12 +207,22 @@ impl GeometryParam {
         }
     }
 
+    /// The parameter for this position's backrest angle: measured with a
+    /// level, or read and judged.
+    pub fn backrest(position: &Position) -> GeometryParam {
+        if position.backrest_measured {
+            GeometryParam::BackrestMeasured
+        } else {
+            GeometryParam::Backrest
+        }
+    }
+
     /// The parameters that move some landmark in this position.
     pub fn all_for(position: &Position) -> Vec<GeometryParam> {
         let mut params = vec![GeometryParam::BodyHeight];
         params.extend(Segment::ALL.map(GeometryParam::Segment));
         if position.lie == Lie::FaceUp {
-            params.push(GeometryParam::Backrest);
+            params.push(GeometryParam::backrest(position));
         }
         params.extend([
             GeometryParam::Tilt,
@@ -355,7 +371,7 @@ pub fn place(body: &Body, position: &Position, shift: Option<Shift>) -> Placemen
     let d = |param| shift_by(shift, param, body);
     let angles = position.angles;
     let tilt = angles.tilt_deg + d(GeometryParam::Tilt);
-    let backrest = angles.backrest_deg + d(GeometryParam::Backrest);
+    let backrest = angles.backrest_deg + d(GeometryParam::backrest(position));
     let neck = angles.neck_flexion_deg + d(GeometryParam::NeckFlexion);
     let height_cm = to_cm(body.height) + d(GeometryParam::BodyHeight);
 

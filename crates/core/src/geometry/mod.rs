@@ -20,7 +20,10 @@ pub use chain::{
     place, Body, GeometryParam, Limb, Placement, PlanePoint, Segment, Shift, MEASURED_SEGMENT_CM,
     PROPORTION_SPREAD,
 };
-pub use position::{Angles, ArmPlacement, Lie, Position, PositionSpec, Posture};
+pub use position::{
+    Angles, ArmPlacement, Lie, Position, PositionSpec, Posture, ESTIMATED_BACKREST_DEG,
+    MEASURED_BACKREST_DEG,
+};
 
 use crate::landmark::Landmark;
 use crate::units::{cm, to_cm, Length};
@@ -261,5 +264,31 @@ mod tests {
         let fig = figure(&Body::of_height(cm(165.0)), &position);
         assert_eq!(fig.landmarks.len(), Landmark::ALL.len());
         assert!(fig.limbs.iter().any(|l| l.name == "left_leg"));
+    }
+
+    #[test]
+    fn a_backrest_measured_with_a_level_moves_the_head_less() {
+        // Half-widths 5° estimated, 2° measured (position.rs, CP and D).
+        let body = Body::of_height(cm(176.0));
+        let mut spec = with_backrest(45.0);
+        let tragus_shift = |spec: &PositionSpec| {
+            let position = spec.resolve("position").unwrap();
+            let param = GeometryParam::backrest(&position);
+            assert!(GeometryParam::all_for(&position).contains(&param));
+            let shifted = place(&body, &position, Some(Shift { param, sign: 1.0 }));
+            let nominal = place(&body, &position, None);
+            to_cm(shifted.heights[&Tragus] - nominal.heights[&Tragus])
+        };
+        let judged = tragus_shift(&spec);
+        spec.backrest_measured = true;
+        let measured = tragus_shift(&spec);
+        assert!(
+            measured > 0.0 && measured < judged / 2.0,
+            "{measured} vs {judged}"
+        );
+        // A flag without a measured angle changes nothing.
+        spec.backrest_deg = None;
+        let position = spec.resolve("position").unwrap();
+        assert_eq!(GeometryParam::backrest(&position), GeometryParam::Backrest);
     }
 }

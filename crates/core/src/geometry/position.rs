@@ -9,6 +9,19 @@ use serde::{Deserialize, Serialize};
 use crate::error::{Error, ErrorKind, Errors};
 use crate::landmark::Side;
 
+/// Half-width of a backrest angle read off the bed's scale or judged by
+/// eye, degrees: bedside estimates of the head-of-bed angle are often
+/// several degrees off (common practice).
+pub const ESTIMATED_BACKREST_DEG: f64 = 5.0;
+/// Half-width of a backrest angle measured with a level laid on the
+/// backrest, degrees: the sensor's own error is about a degree; the rest is
+/// how the level lies on a padded, possibly curved backrest (derived).
+pub const MEASURED_BACKREST_DEG: f64 = 2.0;
+
+fn is_false(b: &bool) -> bool {
+    !*b
+}
+
 /// Named postures. Each gives default angles; any of them can be overridden.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
@@ -228,6 +241,12 @@ pub struct PositionSpec {
     /// Overrides the posture's backrest angle.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub backrest_deg: Option<f64>,
+    /// Whether `backrest_deg` was measured with a level (an inclinometer, or
+    /// a tablet's orientation sensor laid on the backrest) rather than read
+    /// off the bed's scale or judged by eye: it then carries a smaller
+    /// uncertainty ([`MEASURED_BACKREST_DEG`]).
+    #[serde(default, skip_serializing_if = "is_false")]
+    pub backrest_measured: bool,
     /// Overrides the table tilt (positive head-up).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub tilt_deg: Option<f64>,
@@ -254,6 +273,7 @@ impl PositionSpec {
         PositionSpec {
             posture,
             backrest_deg: None,
+            backrest_measured: false,
             tilt_deg: None,
             neck_flexion_deg: None,
             hip_flexion_deg: None,
@@ -360,6 +380,7 @@ impl PositionSpec {
             posture: self.posture,
             lie,
             angles,
+            backrest_measured: self.backrest_measured && self.backrest_deg.is_some(),
             left_arm: self.left_arm.unwrap_or(default_arm),
             right_arm: self.right_arm.unwrap_or(default_arm),
         })
@@ -375,6 +396,9 @@ pub struct Position {
     pub lie: Lie,
     /// The joint and table angles.
     pub angles: Angles,
+    /// Whether the backrest angle was measured with a level.
+    #[serde(skip_serializing_if = "is_false")]
+    pub backrest_measured: bool,
     /// Where the left arm is.
     pub left_arm: ArmPlacement,
     /// Where the right arm is.

@@ -182,6 +182,7 @@ fn position_spec(p: &Position) -> crate::geometry::PositionSpec {
     crate::geometry::PositionSpec {
         posture: p.posture,
         backrest_deg: Some(p.angles.backrest_deg),
+        backrest_measured: p.backrest_measured,
         tilt_deg: Some(p.angles.tilt_deg),
         neck_flexion_deg: Some(p.angles.neck_flexion_deg),
         hip_flexion_deg: Some(p.angles.hip_flexion_deg),
