@@ -78,8 +78,20 @@ macro_rules! quantity_text {
                 self.typed = None;
             }
 
+            /// A number takes the box's unit; text with a unit of its own
+            /// (`15 cmH2O`) keeps it. A message quotes the text as typed,
+            /// never with the box's unit added to it.
             fn parse(text: &str, unit: $unit) -> Result<$entry, QuantityTextError> {
-                format!("{} {}", text.trim(), unit.symbol()).parse()
+                let text = text.trim();
+                if let Ok(Some(amount)) = number(text) {
+                    return Ok(<$entry>::new(amount, unit));
+                }
+                text.parse::<$entry>().map_err(|e| match e {
+                    QuantityTextError::UnknownUnit { .. } | QuantityTextError::Empty => e,
+                    _ => QuantityTextError::NotANumber {
+                        text: text.to_owned(),
+                    },
+                })
             }
 
             /// Shows the field in another unit. A readable value is converted
@@ -208,6 +220,23 @@ mod tests {
             f.entry().unwrap(),
             Some(PressureEntry::new(14.0, PressureUnit::CmH2O))
         );
+    }
+
+    #[test]
+    fn messages_quote_the_text_as_typed_and_a_typed_unit_is_kept() {
+        let mut f = PressureText::empty(PressureUnit::MmHg);
+        f.edit("100/60".into());
+        assert_eq!(
+            f.entry().unwrap_err().to_string(),
+            "'100/60' is not a number"
+        );
+        f.edit("15 cmH2O".into());
+        assert_eq!(
+            f.entry().unwrap(),
+            Some(PressureEntry::new(15.0, PressureUnit::CmH2O))
+        );
+        f.edit("15 psi".into());
+        assert!(f.entry().unwrap_err().to_string().contains("'psi'"));
     }
 
     #[test]

@@ -128,11 +128,7 @@ impl State {
         // share links are: one reader in the download (a second, plain
         // serde reader of the case cost 17 KB gzip).
         let (form, errors, demo) = match Case::from_json(CASE_JSON) {
-            Ok(case) => (
-                Form::from_case(&case),
-                Errors::default(),
-                Some(Rc::new(case)),
-            ),
+            Ok(case) => (Form::of_demo(&case), Errors::default(), Some(Rc::new(case))),
             Err(errors) => (Form::from_case(&Case::new()), errors, None),
         };
         let mut state = State {

@@ -223,7 +223,7 @@ mod tests {
             Slot::Source(0, SourcePart::Systolic),
             PressureUnit::MmHg,
         ));
-        assert_eq!(back.sources[0].systolic.text, "104");
+        assert_eq!(back.sources[0].pressures.systolic.text, "104");
     }
 
     #[test]

@@ -91,9 +91,9 @@ pub fn SourceCard(props: &SourceCardProps) -> Html {
                 choices={Landmark::ALL.to_vec()} height_slot={Slot::Source(i, SourcePart::LevelHeight)}
                 onpick={onpick} state={s.clone()} dispatch={s.dispatcher()} />
             <div class="row row-3">
-                { pressure(SourcePart::Systolic, "Systolic", "systolic", src.systolic.clone()) }
-                { pressure(SourcePart::Diastolic, "Diastolic", "diastolic", src.diastolic.clone()) }
-                { pressure(SourcePart::Mean, "Mean", "mean", src.mean.clone()) }
+                { pressure(SourcePart::Systolic, "Systolic", "systolic", src.pressures.systolic.clone()) }
+                { pressure(SourcePart::Diastolic, "Diastolic", "diastolic", src.pressures.diastolic.clone()) }
+                { pressure(SourcePart::Mean, "Mean", "mean", src.pressures.mean.clone()) }
             </div>
             <details class="more" open={!src.accuracy.text.trim().is_empty()
                 || !s.messages(&format!("{path}.accuracy")).is_empty()}>

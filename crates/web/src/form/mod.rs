@@ -5,6 +5,8 @@
 //! heights, segment lengths, organ levels) rides along untouched, so the
 //! case document always says everything the check used.
 
+mod blood;
+mod demo;
 mod parts;
 mod position;
 
@@ -13,15 +15,17 @@ use std::collections::BTreeMap;
 use plumbline_core::case::Case;
 use plumbline_core::error::Errors;
 use plumbline_core::geometry::Posture;
-use plumbline_core::landmark::Side;
+use plumbline_core::landmark::{Landmark, Side};
 use plumbline_core::organ::{Metric, Organ};
 use plumbline_core::reading::{Method, Quantity};
 use plumbline_core::target::{self, TargetSpec};
 use plumbline_core::units::{LengthUnit, PressureUnit};
 use serde::{Deserialize, Serialize};
 
+pub use blood::Pressures;
 pub use parts::{
-    AssumedForm, BoundKind, LevelForm, LevelPick, ReadingForm, SourceForm, TargetForm,
+    sites, AssumedForm, BaselineForm, BoundKind, LevelForm, LevelPick, ReadingForm, SourceForm,
+    TargetForm,
 };
 pub use position::{AngleKey, ArmChoice, ArmForm, PositionForm};
 
@@ -52,6 +56,25 @@ pub enum SourcePart {
     Accuracy,
     /// The measured height of its level.
     LevelHeight,
+    /// Systolic, diastolic and mean typed in one box (`100/60 (74)`).
+    BloodPressure,
+}
+
+/// A part of the baseline.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum BaselinePart {
+    /// Systolic.
+    Systolic,
+    /// Diastolic.
+    Diastolic,
+    /// Mean.
+    Mean,
+    /// The three typed in one box.
+    BloodPressure,
+    /// The measured height of its level.
+    LevelHeight,
+    /// An angle of the position it was taken in.
+    Angle(AngleKey),
 }
 
 /// A part of another reading or an assumed value.
@@ -93,6 +116,8 @@ pub enum Slot {
     Assumed(Quantity, ReadingPart),
     /// A part of the i-th target.
     Target(usize, TargetPart),
+    /// A part of the baseline.
+    Baseline(BaselinePart),
 }
 
 /// Every change the screen can make to the form.
@@ -114,7 +139,9 @@ pub enum Edit {
     SourceMethod(usize, Method),
     /// A source's level.
     SourceLevel(usize, LevelPick),
-    /// A new, empty arterial source.
+    /// A source's method and site together, as the quick path offers them.
+    SourceSite(usize, Method, Landmark),
+    /// A new, empty arterial source (a cuff).
     AddSource,
     /// The i-th source removed.
     RemoveSource(usize),
@@ -140,6 +167,23 @@ pub enum Edit {
     RemoveTarget(usize),
     /// Back to the default targets.
     DefaultTargets,
+    /// A backrest angle measured with a level, degrees.
+    MeasuredBackrest(f64),
+    /// A baseline to enter.
+    AddBaseline,
+    /// The baseline removed.
+    RemoveBaseline,
+    /// The baseline's method and site together.
+    BaselineSite(Method, Landmark),
+    /// The baseline's method.
+    BaselineMethod(Method),
+    /// The baseline's level.
+    BaselineLevel(LevelPick),
+    /// The posture the baseline was taken in.
+    BaselinePosture(Option<Posture>),
+    /// Every value still as the invented demo case had it cleared, the
+    /// clinician's own entries kept.
+    ClearDemo,
 }
 
 /// The whole form. It is saved on the device as the boxes hold it
@@ -164,7 +208,21 @@ pub struct Form {
     pub targets: Vec<TargetForm>,
     /// Whether the targets are the case's own rather than the defaults.
     pub custom_targets: bool,
+    /// The patient's baseline blood pressure.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub baseline: Option<BaselineForm>,
+    /// Whether the boxes began as the invented demo case: what is still as
+    /// the demo had it is invented (`demo`).
+    #[serde(default, skip_serializing_if = "std::ops::Not::not")]
+    pub demo: bool,
+    /// The form's own revision, so a form saved by an older build can be
+    /// brought up to date ([`Form::with_base`]).
+    #[serde(default)]
+    revision: u8,
 }
+
+/// The form's current revision: 1 added the baseline's boxes.
+const REVISION: u8 = 1;
 
 fn default_targets() -> Vec<TargetForm> {
     target::defaults()
@@ -202,6 +260,17 @@ impl Form {
                 .collect(),
             targets,
             custom_targets,
+            baseline: case.baseline.as_ref().map(BaselineForm::from_spec),
+            demo: false,
+            revision: REVISION,
+        }
+    }
+
+    /// The form showing the invented demo case, marked as such.
+    pub fn of_demo(case: &Case) -> Self {
+        Form {
+            demo: true,
+            ..Form::from_case(case)
         }
     }
 
@@ -212,9 +281,20 @@ impl Form {
     }
 
     /// The form with another case to ride on, for a form read back from
-    /// the device without its case.
+    /// the device without its case. A form saved before the baseline had
+    /// boxes takes its baseline from the case, where it rode then.
     pub fn with_base(self, base: Case) -> Self {
-        Form { base, ..self }
+        let baseline = if self.revision < 1 {
+            base.baseline.as_ref().map(BaselineForm::from_spec)
+        } else {
+            self.baseline
+        };
+        Form {
+            base,
+            baseline,
+            revision: REVISION,
+            ..self
+        }
     }
 
     /// The case the form stands for.
@@ -254,6 +334,7 @@ impl Form {
             .filter_map(|(i, t)| t.spec(i, &mut errors))
             .collect();
         case.targets = self.custom_targets.then_some(targets);
+        case.baseline = self.baseline.as_ref().and_then(|b| b.spec(&mut errors));
         errors.into_result(case)
     }
 
@@ -262,11 +343,20 @@ impl Form {
             Slot::Source(i, part) => {
                 let s = self.sources.get_mut(i)?;
                 match part {
-                    SourcePart::Systolic => Some(&mut s.systolic),
-                    SourcePart::Diastolic => Some(&mut s.diastolic),
-                    SourcePart::Mean => Some(&mut s.mean),
+                    SourcePart::Systolic => Some(&mut s.pressures.systolic),
+                    SourcePart::Diastolic => Some(&mut s.pressures.diastolic),
+                    SourcePart::Mean => Some(&mut s.pressures.mean),
                     SourcePart::Accuracy => Some(&mut s.accuracy),
-                    SourcePart::Id | SourcePart::LevelHeight => None,
+                    SourcePart::Id | SourcePart::LevelHeight | SourcePart::BloodPressure => None,
+                }
+            }
+            Slot::Baseline(part) => {
+                let p = &mut self.baseline.as_mut()?.pressures;
+                match part {
+                    BaselinePart::Systolic => Some(&mut p.systolic),
+                    BaselinePart::Diastolic => Some(&mut p.diastolic),
+                    BaselinePart::Mean => Some(&mut p.mean),
+                    _ => None,
                 }
             }
             Slot::Reading(q, ReadingPart::Value) => Some(&mut self.readings.get_mut(&q)?.value),
@@ -282,6 +372,35 @@ impl Form {
         }
     }
 
+    /// The one-box blood pressure at `slot`, if it is one.
+    fn pressures_mut(&mut self, slot: Slot) -> Option<&mut Pressures> {
+        match slot {
+            Slot::Source(i, _) => Some(&mut self.sources.get_mut(i)?.pressures),
+            Slot::Baseline(_) => Some(&mut self.baseline.as_mut()?.pressures),
+            _ => None,
+        }
+    }
+
+    /// The other sources' names, for naming the i-th.
+    fn taken(&self, i: usize) -> Vec<String> {
+        self.sources
+            .iter()
+            .enumerate()
+            .filter(|(k, _)| *k != i)
+            .map(|(_, s)| s.id.trim().to_owned())
+            .collect()
+    }
+
+    /// Changes the i-th source's method or site; its name follows them
+    /// unless the clinician gave it one of their own.
+    fn change_source(&mut self, i: usize, change: impl FnOnce(&mut SourceForm)) {
+        let taken = self.taken(i);
+        let taken: Vec<&str> = taken.iter().map(String::as_str).collect();
+        if let Some(s) = self.sources.get_mut(i) {
+            s.follow(&taken, change);
+        }
+    }
+
     fn length_mut(&mut self, slot: Slot) -> Option<&mut LengthText> {
         match slot {
             Slot::Height => Some(&mut self.height),
@@ -294,6 +413,9 @@ impl Form {
             Slot::Assumed(q, ReadingPart::LevelHeight) => {
                 Some(&mut self.assumed.get_mut(&q)?.level.height)
             }
+            Slot::Baseline(BaselinePart::LevelHeight) => {
+                Some(&mut self.baseline.as_mut()?.level.height)
+            }
             _ => None,
         }
     }
@@ -302,6 +424,9 @@ impl Form {
         match slot {
             Slot::Haematocrit => Some(&mut self.haematocrit),
             Slot::Angle(key) => self.position.angle_mut(key),
+            Slot::Baseline(BaselinePart::Angle(key)) => {
+                self.baseline.as_mut()?.position.angle_mut(key)
+            }
             Slot::ArmAngle(side, joint) => {
                 let arm = match side {
                     Side::Left => &mut self.position.left,
@@ -334,7 +459,32 @@ impl Form {
             self.custom_targets = true;
         }
         match edit {
+            Edit::Text(
+                slot @ (Slot::Source(_, SourcePart::BloodPressure)
+                | Slot::Baseline(BaselinePart::BloodPressure)),
+                text,
+            ) => {
+                if let Some(p) = self.pressures_mut(slot) {
+                    p.type_in(text);
+                }
+            }
+            Edit::Text(Slot::Reading(q, ReadingPart::Value), text)
+                if !self.readings.contains_key(&q) =>
+            {
+                // The quick path's box: typing a value adds the reading.
+                if !text.trim().is_empty() {
+                    let mut reading = ReadingForm::new(q);
+                    reading.value.edit(text);
+                    self.readings.insert(q, reading);
+                }
+            }
             Edit::Text(slot, text) => {
+                if let Some(p) = self.pressures_mut(slot) {
+                    p.box_typed();
+                }
+                if slot == Slot::Angle(AngleKey::Backrest) {
+                    self.position.measured = false;
+                }
                 if let Some(f) = self.pressure_mut(slot) {
                     f.edit(text);
                 } else if let Some(f) = self.length_mut(slot) {
@@ -342,8 +492,17 @@ impl Form {
                 } else if let Some(f) = self.plain_mut(slot) {
                     *f = text;
                 }
+                // A quick-path reading emptied again, never set up, goes.
+                if let Slot::Reading(q, ReadingPart::Value) = slot {
+                    if self.readings.get(&q) == Some(&ReadingForm::new(q)) {
+                        self.readings.remove(&q);
+                    }
+                }
             }
             Edit::PressureUnit(slot, unit) => {
+                if let Some(p) = self.pressures_mut(slot) {
+                    p.box_typed();
+                }
                 if let Some(f) = self.pressure_mut(slot) {
                     f.switch(unit);
                 }
@@ -359,17 +518,17 @@ impl Form {
                 Side::Left => self.position.left.choice = choice,
                 Side::Right => self.position.right.choice = choice,
             },
-            Edit::SourceMethod(i, method) => {
-                if let Some(s) = self.sources.get_mut(i) {
-                    s.method = method;
-                }
+            Edit::SourceMethod(i, method) => self.change_source(i, |s| s.method = method),
+            Edit::SourceLevel(i, pick) => self.change_source(i, |s| s.level.pick = pick),
+            Edit::SourceSite(i, method, landmark) => self.change_source(i, |s| {
+                s.method = method;
+                s.level.pick = LevelPick::At(landmark);
+            }),
+            Edit::AddSource => {
+                let taken = self.taken(self.sources.len());
+                let taken: Vec<&str> = taken.iter().map(String::as_str).collect();
+                self.sources.push(SourceForm::new(Method::Cuff, &taken));
             }
-            Edit::SourceLevel(i, pick) => {
-                if let Some(s) = self.sources.get_mut(i) {
-                    s.level.pick = pick;
-                }
-            }
-            Edit::AddSource => self.sources.push(SourceForm::new_cuff()),
             Edit::RemoveSource(i) => {
                 if i < self.sources.len() {
                     self.sources.remove(i);
@@ -419,13 +578,40 @@ impl Form {
                 self.targets = default_targets();
                 self.custom_targets = false;
             }
+            Edit::MeasuredBackrest(deg) => self.position.measure_backrest(deg),
+            Edit::AddBaseline => {
+                self.baseline.get_or_insert_with(BaselineForm::lying_flat);
+            }
+            Edit::RemoveBaseline => self.baseline = None,
+            Edit::BaselineSite(method, landmark) => {
+                if let Some(b) = self.baseline.as_mut() {
+                    b.method = method;
+                    b.level.pick = LevelPick::At(landmark);
+                }
+            }
+            Edit::BaselineMethod(method) => {
+                if let Some(b) = self.baseline.as_mut() {
+                    b.method = method;
+                }
+            }
+            Edit::BaselineLevel(pick) => {
+                if let Some(b) = self.baseline.as_mut() {
+                    b.level.pick = pick;
+                }
+            }
+            Edit::BaselinePosture(posture) => {
+                if let Some(b) = self.baseline.as_mut() {
+                    b.position.set_posture(posture);
+                }
+            }
+            Edit::ClearDemo => self.clear_demo(),
         }
     }
 }
 
 #[cfg(test)]
 mod tests {
-    #![allow(clippy::unwrap_used)]
+    #![allow(clippy::unwrap_used, clippy::indexing_slicing)]
     use super::*;
     use plumbline_core::demo::CASE_JSON;
 
@@ -447,7 +633,7 @@ mod tests {
             "1o4".into(),
         ));
         let sources = &form.sources;
-        assert_eq!(sources.first().unwrap().systolic.text, "1o4");
+        assert_eq!(sources.first().unwrap().pressures.systolic.text, "1o4");
         let errors = form.to_case().unwrap_err();
         assert_eq!(errors.for_field("arterial[0].systolic").count(), 1);
     }
@@ -492,5 +678,105 @@ mod tests {
         let case = form.to_case().unwrap();
         assert!(case.readings.contains_key(&Quantity::Icp));
         assert!(case.assume.is_empty());
+    }
+
+    fn blank() -> Form {
+        Form::from_case(&crate::session::blank_case())
+    }
+
+    #[test]
+    fn a_source_is_named_by_what_it_is_until_named_by_hand() {
+        let mut form = blank();
+        assert_eq!(form.sources[0].id, "arterial line");
+        form.apply(Edit::SourceMethod(0, Method::Cuff));
+        let cuff = &form.sources[0];
+        assert_eq!(cuff.id, "L arm cuff");
+        assert_eq!(cuff.level.pick, LevelPick::At(Landmark::UpperArmLeft));
+        form.apply(Edit::SourceSite(0, Method::Cuff, Landmark::CalfRight));
+        assert_eq!(form.sources[0].id, "R calf cuff");
+        form.apply(Edit::AddSource);
+        assert_eq!(form.sources[1].id, "L arm cuff");
+        form.apply(Edit::Text(Slot::Source(0, SourcePart::Id), "leg".into()));
+        form.apply(Edit::SourceSite(0, Method::Transducer, Landmark::Heart));
+        assert_eq!(form.sources[0].id, "leg", "a name typed by hand stays");
+        assert_eq!(
+            form.sources[0].site(),
+            Some((Method::Transducer, Landmark::Heart))
+        );
+    }
+
+    #[test]
+    fn a_blood_pressure_typed_in_one_box_reaches_the_case() {
+        let mut form = blank();
+        let slot = Slot::Source(0, SourcePart::BloodPressure);
+        form.apply(Edit::Text(slot, "100/60 (74)".into()));
+        let line = form.to_case().unwrap().arterial.remove(0);
+        assert_eq!(line.systolic.unwrap().amount, 100.0);
+        assert_eq!(line.mean.unwrap().amount, 74.0);
+        form.apply(Edit::Text(slot, "100/6o".into()));
+        let errors = form.to_case().unwrap_err();
+        assert_eq!(errors.for_field("arterial[0].blood_pressure").count(), 1);
+        form.apply(Edit::Text(Slot::Source(0, SourcePart::Mean), "70".into()));
+        assert_eq!(form.sources[0].pressures.text(), "100/60 (70)");
+    }
+
+    #[test]
+    fn a_quick_reading_comes_with_its_value_and_goes_when_emptied() {
+        let mut form = blank();
+        let slot = Slot::Reading(Quantity::Icp, ReadingPart::Value);
+        form.apply(Edit::Text(slot, "12".into()));
+        assert_eq!(form.readings[&Quantity::Icp].value.text, "12");
+        form.apply(Edit::Text(slot, String::new()));
+        assert!(form.readings.is_empty());
+    }
+
+    #[test]
+    fn the_baseline_has_boxes_of_its_own() {
+        let mut form = blank();
+        form.apply(Edit::AddBaseline);
+        form.apply(Edit::Text(
+            Slot::Baseline(BaselinePart::BloodPressure),
+            "130/80".into(),
+        ));
+        form.apply(Edit::BaselinePosture(Some(Posture::HeadUp)));
+        form.apply(Edit::Text(
+            Slot::Baseline(BaselinePart::Angle(AngleKey::Backrest)),
+            "4x".into(),
+        ));
+        let errors = form.to_case().unwrap_err();
+        assert_eq!(
+            errors.for_field("baseline.position.backrest_deg").count(),
+            1
+        );
+        form.apply(Edit::Text(
+            Slot::Baseline(BaselinePart::Angle(AngleKey::Backrest)),
+            "45".into(),
+        ));
+        let baseline = form.to_case().unwrap().baseline.unwrap();
+        assert_eq!(baseline.method, Method::Cuff);
+        assert_eq!(baseline.position.backrest_deg, Some(45.0));
+        assert_eq!(baseline.diastolic.unwrap().amount, 80.0);
+        // A form saved before the baseline had boxes keeps the case's.
+        let demo_case = Case::from_json(CASE_JSON).unwrap();
+        let mut old = serde_json::to_value(demo()).unwrap();
+        old.as_object_mut().unwrap().remove("revision");
+        old.as_object_mut().unwrap().remove("baseline");
+        let old: Form = serde_json::from_value(old).unwrap();
+        assert_eq!(
+            old.with_base(demo_case.clone()).to_case().unwrap(),
+            demo_case
+        );
+    }
+
+    #[test]
+    fn a_measured_backrest_is_an_estimate_again_once_typed() {
+        let mut form = blank();
+        form.apply(Edit::Posture(Some(Posture::HeadUp)));
+        form.apply(Edit::MeasuredBackrest(37.0));
+        let position = form.to_case().unwrap().position.unwrap();
+        assert_eq!(position.backrest_deg, Some(37.0));
+        assert!(position.backrest_measured);
+        form.apply(Edit::Text(Slot::Angle(AngleKey::Backrest), "40".into()));
+        assert!(!form.to_case().unwrap().position.unwrap().backrest_measured);
     }
 }

@@ -5,17 +5,20 @@
 //! names every unreadable box by its document path, so the message lands
 //! beside the box it is about.
 
-use plumbline_core::case::{ArterialSpec, AssumedSpec, ReadingSpec};
+use plumbline_core::case::{ArterialSpec, AssumedSpec, BaselineSpec, ReadingSpec};
 use plumbline_core::error::{Error, ErrorKind, Errors};
+use plumbline_core::geometry::{PositionSpec, Posture};
 use plumbline_core::landmark::Landmark;
 use plumbline_core::organ::{Metric, Organ};
 use plumbline_core::reading::{Level, Method, Quantity};
 use plumbline_core::target::TargetSpec;
-use plumbline_core::units::{LengthUnit, PressureEntry, PressureUnit, QuantityTextError};
-use plumbline_core::usual::{first_level, method_for, unit_for};
+use plumbline_core::units::{LengthEntry, LengthUnit, PressureEntry, PressureUnit};
+use plumbline_core::usual::{first_arterial_level, first_level, method_for, source_name, unit_for};
 
 use serde::{Deserialize, Serialize};
 
+use super::blood::Pressures;
+use super::position::PositionForm;
 use crate::fields::{number, number_text, LengthText, PressureText};
 
 /// Records why `result` could not be read, at `path`.
@@ -35,20 +38,28 @@ pub fn read<T, E: std::fmt::Display>(
     })
 }
 
-/// A plain number box that must not be empty; `what` says what to write.
-pub fn required_number(text: &str, path: &str, what: &str, errors: &mut Errors) -> Option<f64> {
-    let value = number(text)
-        .map_err(|e| e.to_string())
-        .and_then(|v| v.ok_or_else(|| format!("is empty; write {what}")));
-    read(value.map(Some), path, errors)
+/// Records that a box that must be filled is empty: something still to
+/// enter, not a mistake (the screen shows it calmly).
+fn empty(path: &str, what: &str, errors: &mut Errors) {
+    errors.push(Error::missing(path, format!("is empty; write {what}")));
 }
 
-/// As [`read`], for a box that must not be empty.
+/// A plain number box that must not be empty; `what` says what to write.
+pub fn required_number(text: &str, path: &str, what: &str, errors: &mut Errors) -> Option<f64> {
+    let value = read(number(text), path, errors);
+    if value.is_none() && matches!(number(text), Ok(None)) {
+        empty(path, what, errors);
+    }
+    value
+}
+
+/// As [`read`], for a pressure box that must not be empty.
 pub fn required(field: &PressureText, path: &str, errors: &mut Errors) -> Option<PressureEntry> {
-    let value = field
-        .entry()
-        .and_then(|v| v.ok_or(QuantityTextError::Empty));
-    read(value.map(Some), path, errors)
+    let value = read(field.entry(), path, errors);
+    if value.is_none() && matches!(field.entry(), Ok(None)) {
+        empty(path, "the pressure", errors);
+    }
+    value
 }
 
 /// Where a level is, as the picker offers it.
@@ -98,12 +109,12 @@ impl LevelForm {
             LevelPick::Usual => Some(None),
             LevelPick::At(l) => Some(Some(Level::At(l))),
             LevelPick::Height => {
-                let value = self
-                    .height
-                    .entry()
-                    .and_then(|v| v.ok_or(QuantityTextError::Empty));
-                read(value.map(Some), &format!("{path}.height"), errors)
-                    .map(|h| Some(Level::Height(h)))
+                let path = format!("{path}.height");
+                let height = read(self.height.entry(), &path, errors);
+                if height.is_none() && matches!(self.height.entry(), Ok(None)) {
+                    empty(&path, "the height in cm", errors);
+                }
+                height.map(|h| Some(Level::Height(h)))
             }
         }
     }
@@ -112,57 +123,101 @@ impl LevelForm {
 /// One arterial source.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct SourceForm {
-    /// Its short label, as typed.
+    /// Its short label, as typed; it follows the method and site until the
+    /// clinician types one of their own (`SourceForm::follow`).
     pub id: String,
     /// How it is measured.
     pub method: Method,
     /// Where it reads.
     pub level: LevelForm,
-    /// Systolic.
-    pub systolic: PressureText,
-    /// Diastolic.
-    pub diastolic: PressureText,
-    /// Mean.
-    pub mean: PressureText,
+    /// Systolic, diastolic and mean, and the one-box text over them.
+    #[serde(flatten)]
+    pub pressures: Pressures,
     /// Accuracy instead of the method's default.
     pub accuracy: PressureText,
+}
+
+/// A level as the core names it, for naming a source: a measured height
+/// counts as a height whatever its number.
+fn level_of(level: &LevelForm) -> Level {
+    match level.pick {
+        LevelPick::At(l) => Level::At(l),
+        LevelPick::Usual | LevelPick::Height => Level::Height(LengthEntry::cm(0.0)),
+    }
+}
+
+/// The sites the quick path offers for a blood pressure: a cuff on each
+/// limb, and a line's transducer at the heart or at ear level.
+pub fn sites() -> Vec<(Method, Landmark)> {
+    Landmark::ALL
+        .into_iter()
+        .filter(|l| l.is_limb())
+        .map(|l| (Method::Cuff, l))
+        .chain([
+            (Method::Transducer, Landmark::Heart),
+            (Method::Transducer, Landmark::Tragus),
+        ])
+        .collect()
 }
 
 impl SourceForm {
     /// The form of a source in a case.
     pub fn from_spec(spec: &ArterialSpec) -> Self {
-        let p = |e: Option<PressureEntry>| PressureText::from_entry(e, PressureUnit::MmHg);
         SourceForm {
             id: spec.id.clone(),
             method: spec.method,
             level: LevelForm::from_level(Some(spec.level)),
-            systolic: p(spec.systolic),
-            diastolic: p(spec.diastolic),
-            mean: p(spec.mean),
-            accuracy: p(spec.accuracy),
+            pressures: Pressures::of(spec.systolic, spec.diastolic, spec.mean),
+            accuracy: PressureText::from_entry(spec.accuracy, PressureUnit::MmHg),
         }
     }
 
-    /// A new, empty cuff on the left upper arm.
-    pub fn new_cuff() -> Self {
-        let p = || PressureText::empty(PressureUnit::MmHg);
+    /// A new, empty source of `method` at its usual first site, named by
+    /// what it is (`taken`: the other sources' names).
+    pub fn new(method: Method, taken: &[&str]) -> Self {
+        let level = LevelForm::pick(LevelPick::At(first_arterial_level(method)));
         SourceForm {
-            id: String::new(),
-            method: Method::Cuff,
-            level: LevelForm::pick(LevelPick::At(Landmark::UpperArmLeft)),
-            systolic: p(),
-            diastolic: p(),
-            mean: p(),
-            accuracy: p(),
+            id: source_name(method, level_of(&level), taken),
+            method,
+            level,
+            pressures: Pressures::of(None, None, None),
+            accuracy: PressureText::empty(PressureUnit::MmHg),
+        }
+    }
+
+    /// The name the core gives this source from its method and site.
+    pub fn usual_name(&self, taken: &[&str]) -> String {
+        source_name(self.method, level_of(&self.level), taken)
+    }
+
+    /// The source's site in the quick path's list, if it is one of them.
+    pub fn site(&self) -> Option<(Method, Landmark)> {
+        match self.level.pick {
+            LevelPick::At(l) => sites().into_iter().find(|s| *s == (self.method, l)),
+            _ => None,
+        }
+    }
+
+    /// Applies a change of method and site, then lets the name follow
+    /// them unless the clinician named the source themselves: a name that
+    /// is empty or the usual one for what the source was is renamed; a line
+    /// turned into a cuff moves from the line's usual level to the cuff's.
+    pub fn follow(&mut self, taken: &[&str], change: impl FnOnce(&mut SourceForm)) {
+        let usual = self.usual_name(taken);
+        let method = self.method;
+        change(self);
+        if self.method != method && self.level.pick == LevelPick::At(first_arterial_level(method)) {
+            self.level = LevelForm::pick(LevelPick::At(first_arterial_level(self.method)));
+        }
+        if self.id.trim().is_empty() || self.id.trim() == usual {
+            self.id = self.usual_name(taken);
         }
     }
 
     /// The source for the case.
     pub fn spec(&self, i: usize, errors: &mut Errors) -> Option<ArterialSpec> {
         let path = format!("arterial[{i}]");
-        let systolic = read(self.systolic.entry(), &format!("{path}.systolic"), errors);
-        let diastolic = read(self.diastolic.entry(), &format!("{path}.diastolic"), errors);
-        let mean = read(self.mean.entry(), &format!("{path}.mean"), errors);
+        let [systolic, diastolic, mean] = self.pressures.entries(&path, errors);
         let accuracy = read(self.accuracy.entry(), &format!("{path}.accuracy"), errors);
         let level = self.level.level(&format!("{path}.level"), errors)??;
         Some(ArterialSpec {
@@ -173,6 +228,64 @@ impl SourceForm {
             diastolic,
             mean,
             accuracy,
+        })
+    }
+}
+
+/// The patient's baseline blood pressure, where and how it was taken, for
+/// targets relative to baseline.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct BaselineForm {
+    /// How it was measured.
+    pub method: Method,
+    /// Where it reads.
+    pub level: LevelForm,
+    /// The position the patient was in.
+    pub position: PositionForm,
+    /// Systolic, diastolic and mean, and the one-box text over them.
+    pub pressures: Pressures,
+}
+
+impl BaselineForm {
+    /// The form of a case's baseline.
+    pub fn from_spec(spec: &BaselineSpec) -> Self {
+        BaselineForm {
+            method: spec.method,
+            level: LevelForm::from_level(Some(spec.level)),
+            position: PositionForm::from_spec(Some(&spec.position)),
+            pressures: Pressures::of(spec.systolic, spec.diastolic, spec.mean),
+        }
+    }
+
+    /// A new baseline to be entered: a cuff on the left upper arm, lying flat.
+    pub fn lying_flat() -> Self {
+        BaselineForm {
+            method: Method::Cuff,
+            level: LevelForm::pick(LevelPick::At(first_arterial_level(Method::Cuff))),
+            position: PositionForm::from_spec(Some(&PositionSpec::new(Posture::Supine))),
+            pressures: Pressures::of(None, None, None),
+        }
+    }
+
+    /// The baseline for the case.
+    pub fn spec(&self, errors: &mut Errors) -> Option<BaselineSpec> {
+        let path = "baseline";
+        let [systolic, diastolic, mean] = self.pressures.entries(path, errors);
+        let level = self.level.level("baseline.level", errors)??;
+        let Some(position) = self.position.spec_at("baseline.position", errors) else {
+            errors.push(Error::missing(
+                "baseline.position",
+                "the baseline needs the position it was taken in",
+            ));
+            return None;
+        };
+        Some(BaselineSpec {
+            method: self.method,
+            level,
+            position,
+            systolic,
+            diastolic,
+            mean,
         })
     }
 }

@@ -67,7 +67,12 @@ impl AngleKey {
 
     /// The path of the field in the case document.
     pub fn path(self) -> String {
-        format!("position.{}", self.key())
+        self.path_in("position")
+    }
+
+    /// The path of the field in a position at `prefix`.
+    pub fn path_in(self, prefix: &str) -> String {
+        format!("{prefix}.{}", self.key())
     }
 
     fn of(self, angles: &Angles) -> f64 {
@@ -198,6 +203,10 @@ pub struct PositionForm {
     /// The named posture; `None` when the case gives no position.
     pub posture: Option<Posture>,
     angles: [String; 5],
+    /// Whether the backrest angle shown was measured with a level; typing
+    /// in its box makes it an estimate again.
+    #[serde(default)]
+    pub measured: bool,
     /// The left arm.
     pub left: ArmForm,
     /// The right arm.
@@ -212,6 +221,7 @@ impl PositionForm {
             None => PositionForm {
                 posture: None,
                 angles: Default::default(),
+                measured: false,
                 left: ArmForm::from_placement(None),
                 right: ArmForm::from_placement(None),
             },
@@ -224,6 +234,7 @@ impl PositionForm {
                     text(s.hip_flexion_deg),
                     text(s.knee_flexion_deg),
                 ],
+                measured: s.backrest_measured,
                 left: ArmForm::from_placement(s.left_arm),
                 right: ArmForm::from_placement(s.right_arm),
             },
@@ -276,16 +287,34 @@ impl PositionForm {
         if let Some(text) = self.angle_mut(key) {
             *text = number_text(current + delta);
         }
+        if key == AngleKey::Backrest {
+            self.measured = false;
+        }
+    }
+
+    /// A backrest angle measured with a level: it fills the box, and the
+    /// check counts it with the level's smaller uncertainty.
+    pub fn measure_backrest(&mut self, deg: f64) {
+        if let Some(text) = self.angle_mut(AngleKey::Backrest) {
+            *text = number_text(deg);
+            self.measured = true;
+        }
     }
 
     /// The position for the case, with every unreadable box named.
     pub fn spec(&self, errors: &mut Errors) -> Option<PositionSpec> {
+        self.spec_at("position", errors)
+    }
+
+    /// As [`PositionForm::spec`], for a position at `prefix` in the case.
+    pub fn spec_at(&self, prefix: &str, errors: &mut Errors) -> Option<PositionSpec> {
         let mut spec = PositionSpec::new(self.posture?);
+        spec.backrest_measured = self.measured;
         for key in AngleKey::ALL {
             let value = match number(self.angle(key)) {
                 Ok(v) => v,
                 Err(e) => {
-                    errors.push(angle_error(&key.path(), e.to_string()));
+                    errors.push(angle_error(&key.path_in(prefix), e.to_string()));
                     None
                 }
             };
@@ -297,8 +326,8 @@ impl PositionForm {
                 AngleKey::Knee => spec.knee_flexion_deg = value,
             }
         }
-        spec.left_arm = self.left.placement("position.left_arm", errors);
-        spec.right_arm = self.right.placement("position.right_arm", errors);
+        spec.left_arm = self.left.placement(&format!("{prefix}.left_arm"), errors);
+        spec.right_arm = self.right.placement(&format!("{prefix}.right_arm"), errors);
         Some(spec)
     }
 }
