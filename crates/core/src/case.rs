@@ -68,6 +68,10 @@ pub struct Case {
     /// when the reading is absent, and flagged in every result that uses them.
     #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
     pub assume: BTreeMap<Quantity, AssumedSpec>,
+    /// The organs of concern: the summary judges these. Every organ with a
+    /// result when left out.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub concern: Vec<Organ>,
     /// The landmark an organ is checked at, for organs with a choice.
     #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
     pub organ_levels: BTreeMap<Organ, Landmark>,
@@ -333,6 +337,7 @@ impl Case {
             primary_arterial: None,
             readings: BTreeMap::new(),
             assume: BTreeMap::new(),
+            concern: Vec::new(),
             organ_levels: BTreeMap::new(),
             targets: None,
             baseline: None,
@@ -415,6 +420,7 @@ impl Case {
             primary_arterial: self.primary_arterial.clone(),
             readings: self.readings.clone(),
             assume: self.assume.clone(),
+            concern: self.concern.clone(),
             organ_levels: self.organ_levels.clone(),
             targets: self.targets.clone(),
             baseline: self.baseline.clone(),

@@ -26,5 +26,6 @@ pub mod report;
 pub mod scene;
 pub mod share;
 pub mod target;
+pub mod text;
 pub mod units;
 pub mod usual;

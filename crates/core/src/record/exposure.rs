@@ -10,6 +10,7 @@ use super::walk::{plan, walk, Followed};
 use crate::organ::{Metric, Organ};
 use crate::reading::Quantity;
 use crate::scene::Scene;
+use crate::target::Status;
 use crate::units::{to_mmhg, Pressure};
 
 /// Exposure outside one target over a record.
@@ -23,6 +24,9 @@ pub struct TargetExposure {
     pub label: &'static str,
     /// The target in words.
     pub target: String,
+    /// Met (observed and never outside), below, above (some time outside),
+    /// or not observed (no time with every input observed).
+    pub status: Status,
     /// The threshold, mmHg.
     pub threshold_mmhg: f64,
     /// `true` for a floor (time below counts), `false` for a ceiling.
@@ -58,8 +62,21 @@ pub struct TargetExposure {
 pub struct NotAnalysed {
     /// The target in words.
     pub target: String,
+    /// Always not evaluated: the record cannot follow it.
+    pub status: Status,
     /// Why.
     pub why: String,
+}
+
+impl NotAnalysed {
+    /// A target the record cannot follow, and why.
+    pub(super) fn new(target: &crate::target::Target, why: String) -> Self {
+        NotAnalysed {
+            target: target.describe(),
+            status: Status::NotEvaluated,
+            why,
+        }
+    }
 }
 
 /// Exposure over a record.
@@ -245,11 +262,21 @@ fn summarize(f: &Followed<'_>, t: Tally, rules: &Rules) -> TargetExposure {
         }
         w
     };
+    let status = if observed_min <= 0.0 {
+        Status::NotObserved
+    } else if outside_s <= 0.0 {
+        Status::Met
+    } else if f.at_least {
+        Status::Below
+    } else {
+        Status::Above
+    };
     TargetExposure {
         organ: f.target.organ,
         metric: f.target.metric,
         label,
         target: f.target.describe(),
+        status,
         threshold_mmhg: thr,
         at_least: f.at_least,
         observed_min,

@@ -6,7 +6,7 @@ use super::channel::{Channel, Sampling};
 use super::exposure::NotAnalysed;
 use super::rules::Rules;
 use super::timeline::Timeline;
-use crate::evaluate::{self, organ_level, Ctx, Form, Input};
+use crate::evaluate::{self, organ_place, Ctx, Input, Linear};
 use crate::reading::Quantity;
 use crate::scene::Scene;
 use crate::target::Target;
@@ -17,7 +17,7 @@ pub(super) struct Followed<'t> {
     pub(super) target: &'t Target,
     pub(super) threshold: Pressure,
     pub(super) at_least: bool,
-    pub(super) forms: Vec<Option<Form>>,
+    pub(super) forms: Vec<Option<Linear>>,
     pub(super) assumed: Vec<Quantity>,
 }
 
@@ -54,12 +54,9 @@ pub(super) fn plan<'t>(scene: &'t Scene, timeline: &Timeline) -> Plan<'t> {
     let mut followed = Vec::new();
     let mut not_analysed = Vec::new();
     for target in &scene.targets {
-        let not = |why: String| NotAnalysed {
-            target: target.describe(),
-            why,
-        };
-        let level = match organ_level(&base, target.organ) {
-            Ok(level) => level,
+        let not = |why: String| NotAnalysed::new(target, why);
+        let place = match organ_place(&base, target.organ) {
+            Ok(place) => place,
             Err(m) => {
                 not_analysed.push(not(format!("needs {}", m.0.join("; "))));
                 continue;
@@ -69,18 +66,15 @@ pub(super) fn plan<'t>(scene: &'t Scene, timeline: &Timeline) -> Plan<'t> {
             not_analysed.push(not(format!("needs {}", m.0.join("; "))));
             continue;
         }
-        let (threshold, at_least) = match crate::check::threshold(&base, level, target) {
+        let (threshold, at_least) = match crate::check::threshold(&base, place, target) {
             Ok((t, at_least, _)) => (t, at_least),
             Err(m) => {
-                not_analysed.push(NotAnalysed {
-                    target: target.describe(),
-                    why: format!("needs {}", m.0.join("; ")),
-                });
+                not_analysed.push(not(format!("needs {}", m.0.join("; "))));
                 continue;
             }
         };
         let mut assumed = Vec::new();
-        let forms: Vec<Option<Form>> = contexts
+        let forms: Vec<Option<Linear>> = contexts
             .iter()
             .map(|ctx| {
                 let (form, used) = form_for(ctx, target, &has_channel)?;
@@ -100,10 +94,9 @@ pub(super) fn plan<'t>(scene: &'t Scene, timeline: &Timeline) -> Plan<'t> {
                 assumed,
             });
         } else {
-            not_analysed.push(NotAnalysed {
-                target: target.describe(),
-                why: "none of its readings has samples in the record".to_owned(),
-            });
+            not_analysed.push(not(
+                "none of its readings has samples in the record".to_owned()
+            ));
         }
     }
     Plan {
@@ -209,18 +202,18 @@ fn form_for(
     ctx: &Ctx<'_>,
     target: &Target,
     has_channel: &dyn Fn(Input) -> bool,
-) -> Option<(Form, Vec<Quantity>)> {
+) -> Option<(Linear, Vec<Quantity>)> {
     let scene = ctx.scene();
     let primary = evaluate::metric(ctx, target.organ, target.metric, None).ok()?;
-    let Input::Arterial(_, component) = primary.form.lead.input else {
-        return Some((primary.form, primary.assumed));
+    let Input::Arterial(_, component) = primary.linear.lead.input else {
+        return Some((primary.linear, primary.assumed));
     };
-    if has_channel(primary.form.lead.input) {
-        return Some((primary.form, primary.assumed));
+    if has_channel(primary.linear.lead.input) {
+        return Some((primary.linear, primary.assumed));
     }
     (0..scene.arterial.len())
         .filter(|i| has_channel(Input::Arterial(*i, component)))
         .find_map(|i| evaluate::metric(ctx, target.organ, target.metric, Some(i)).ok())
-        .filter(|v| has_channel(v.form.lead.input))
-        .map(|v| (v.form, v.assumed))
+        .filter(|v| has_channel(v.linear.lead.input))
+        .map(|v| (v.linear, v.assumed))
 }

@@ -542,6 +542,13 @@ impl Scene {
             }
         }
 
+        let mut concern: Vec<Organ> = Vec::new();
+        for organ in &case.concern {
+            if !concern.contains(organ) {
+                concern.push(*organ);
+            }
+        }
+
         let mut organ_levels = BTreeMap::new();
         for (organ, landmark) in &case.organ_levels {
             let field = format!("organ_levels.{organ}");
@@ -585,7 +592,7 @@ impl Scene {
                 for (i, spec) in specs.iter().enumerate() {
                     let field = format!("targets[{i}]");
                     if spec
-                        .source
+                        .citation
                         .as_ref()
                         .is_some_and(|s| s.chars().count() > MAX_SOURCE_CHARS)
                     {
@@ -625,6 +632,7 @@ impl Scene {
             arterial,
             primary,
             readings,
+            concern,
             organ_levels,
             targets,
             baseline,

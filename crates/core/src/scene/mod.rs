@@ -10,6 +10,8 @@
 mod gate;
 mod params;
 
+pub use params::input_owner;
+
 use std::collections::BTreeMap;
 
 use crate::case::{ArterialSpec, BaselineSpec, Case, HeightSpec, ReadingSpec};
@@ -160,7 +162,7 @@ pub struct Measured {
 
 /// Which input an uncertain value belongs to.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord)]
-pub enum Source {
+pub enum Owner {
     /// An arterial source, by index.
     Arterial(usize),
     /// A non-arterial reading.
@@ -177,13 +179,13 @@ pub enum Param {
     /// A measured landmark height.
     Measured(Landmark),
     /// The explicit transducer height of a reading.
-    Place(Source),
+    Place(Owner),
     /// A fluid's density.
     Density(Fluid),
     /// A device's accuracy.
-    Device(Source),
+    Device(Owner),
     /// The rule used to estimate a mean from systolic and diastolic.
-    MeanRule(Source),
+    MeanRule(Owner),
 }
 
 /// Everything one check computes from, checked and in SI.
@@ -205,6 +207,9 @@ pub struct Scene {
     pub primary: Option<usize>,
     /// Other readings, measured or assumed.
     pub readings: BTreeMap<Quantity, Reading>,
+    /// The organs of concern, in case order without repeats; empty for
+    /// every organ with a result.
+    pub concern: Vec<Organ>,
     /// Organ levels chosen in the case.
     pub organ_levels: BTreeMap<Organ, Landmark>,
     /// Targets.
@@ -249,14 +254,14 @@ impl Scene {
     }
 
     /// The name of an input source in words.
-    pub fn source_name(&self, source: Source) -> String {
-        match source {
-            Source::Arterial(i) => self
+    pub fn owner_name(&self, owner: Owner) -> String {
+        match owner {
+            Owner::Arterial(i) => self
                 .arterial
                 .get(i)
                 .map_or_else(|| "arterial source".to_owned(), |a| a.id.clone()),
-            Source::Reading(q) => q.label().to_owned(),
-            Source::Baseline => "baseline".to_owned(),
+            Owner::Reading(q) => q.label().to_owned(),
+            Owner::Baseline => "baseline".to_owned(),
         }
     }
 

@@ -2,6 +2,8 @@
 //! the edge of its range: how every result's range is found.
 
 use super::*;
+use crate::evaluate::Input;
+use crate::units::column;
 
 impl Scene {
     /// The uncertain inputs of this scene, each to be shifted in turn.
@@ -22,28 +24,28 @@ impl Scene {
         params.extend(self.measured.keys().map(|l| Param::Measured(*l)));
         params.extend(Fluid::ALL.map(Param::Density));
         for (i, a) in self.arterial.iter().enumerate() {
-            let source = Source::Arterial(i);
-            params.push(Param::Device(source));
+            let owner = Owner::Arterial(i);
+            params.push(Param::Device(owner));
             if matches!(a.place, Place::Height { .. }) {
-                params.push(Param::Place(source));
+                params.push(Param::Place(owner));
             }
             if matches!(a.mean, Some((_, MeanBasis::Estimated(_)))) {
-                params.push(Param::MeanRule(source));
+                params.push(Param::MeanRule(owner));
             }
         }
         for (q, r) in &self.readings {
             if r.is_assumed() {
                 continue;
             }
-            params.push(Param::Device(Source::Reading(*q)));
+            params.push(Param::Device(Owner::Reading(*q)));
             if matches!(r.place, Place::Height { .. }) {
-                params.push(Param::Place(Source::Reading(*q)));
+                params.push(Param::Place(Owner::Reading(*q)));
             }
         }
         if let Some(b) = &self.baseline {
-            params.push(Param::Device(Source::Baseline));
+            params.push(Param::Device(Owner::Baseline));
             if matches!(b.mean.1, MeanBasis::Estimated(_)) {
-                params.push(Param::MeanRule(Source::Baseline));
+                params.push(Param::MeanRule(Owner::Baseline));
             }
         }
         params
@@ -63,16 +65,16 @@ impl Scene {
                 let range = next.densities.get_mut(fluid);
                 range.nominal = if sign > 0.0 { range.high } else { range.low };
             }
-            Param::Place(source) => {
+            Param::Place(owner) => {
                 if let Some(Place::Height {
                     height,
                     uncertainty,
-                }) = next.place_mut(source)
+                }) = next.place_mut(owner)
                 {
                     *height += *uncertainty * sign;
                 }
             }
-            Param::Device(Source::Arterial(i)) => {
+            Param::Device(Owner::Arterial(i)) => {
                 if let Some(a) = next.arterial.get_mut(i) {
                     let reference = a
                         .component(Component::Mean)
@@ -81,38 +83,100 @@ impl Scene {
                     *a = a.shifted_by(a.accuracy_of(reference) * sign);
                 }
             }
-            Param::Device(Source::Reading(q)) => {
+            Param::Device(Owner::Reading(q)) => {
                 if let Some(r) = next.readings.get_mut(&q) {
                     r.value += r.accuracy * sign;
                 }
             }
-            Param::Device(Source::Baseline) => {
+            Param::Device(Owner::Baseline) => {
                 if let Some(b) = next.baseline.as_mut() {
                     b.mean.0 += b.method.accuracy(b.mean.0) * sign;
                 }
             }
-            Param::MeanRule(Source::Arterial(i)) => {
+            Param::MeanRule(Owner::Arterial(i)) => {
                 if let Some(a) = next.arterial.get_mut(i) {
                     if let Some((m, basis)) = a.mean {
                         a.mean = Some((m + rule_gap(a.systolic, a.diastolic, basis) * sign, basis));
                     }
                 }
             }
-            Param::MeanRule(Source::Baseline) => {
+            Param::MeanRule(Owner::Baseline) => {
                 if let Some(b) = next.baseline.as_mut() {
                     b.mean.0 += rule_gap(b.systolic, b.diastolic, b.mean.1) * sign;
                 }
             }
-            Param::MeanRule(Source::Reading(_)) => {}
+            Param::MeanRule(Owner::Reading(_)) => {}
         }
         next
     }
 
-    fn place_mut(&mut self, source: Source) -> Option<&mut Place> {
-        match source {
-            Source::Arterial(i) => self.arterial.get_mut(i).map(|a| &mut a.place),
-            Source::Reading(q) => self.readings.get_mut(&q).map(|r| &mut r.place),
-            Source::Baseline => self.baseline.as_mut().map(|b| &mut b.place),
+    fn place_mut(&mut self, owner: Owner) -> Option<&mut Place> {
+        match owner {
+            Owner::Arterial(i) => self.arterial.get_mut(i).map(|a| &mut a.place),
+            Owner::Reading(q) => self.readings.get_mut(&q).map(|r| &mut r.place),
+            Owner::Baseline => self.baseline.as_mut().map(|b| &mut b.place),
+        }
+    }
+
+    /// Whether moving `param` changes the heights or densities of the whole
+    /// scene (and so needs a shifted scene), rather than one reading.
+    pub fn moves_the_scene(param: Param) -> bool {
+        matches!(
+            param,
+            Param::Geometry(_) | Param::Measured(_) | Param::Density(_)
+        )
+    }
+
+    /// The reading or baseline a reading-level input belongs to.
+    pub fn owner_of(param: Param) -> Option<Owner> {
+        match param {
+            Param::Place(o) | Param::Device(o) | Param::MeanRule(o) => Some(o),
+            Param::Geometry(_) | Param::Measured(_) | Param::Density(_) => None,
+        }
+    }
+
+    /// How far moving a reading-level `param` up by one half-width moves
+    /// `input` as it enters a metric (`carried` through a fluid, or taken as
+    /// read); `None` when it does not move it. Equal to what
+    /// [`Scene::shifted`] does, without copying the scene.
+    pub fn reading_shift(
+        &self,
+        param: Param,
+        input: Input,
+        carried: Option<Fluid>,
+    ) -> Option<Pressure> {
+        match (param, input) {
+            (Param::Device(Owner::Arterial(i)), Input::Arterial(j, _)) if i == j => {
+                let a = self.arterial.get(i)?;
+                let reference = a
+                    .component(Component::Mean)
+                    .or(a.diastolic)
+                    .unwrap_or_default();
+                Some(a.accuracy_of(reference))
+            }
+            (Param::Device(Owner::Reading(q)), Input::Reading(r)) if q == r => {
+                self.readings.get(&q).map(|r| r.accuracy)
+            }
+            (Param::Place(owner), _) if owner == input_owner(input) => {
+                let place = match input {
+                    Input::Arterial(i, _) => self.arterial.get(i)?.place,
+                    Input::Reading(q) => self.readings.get(&q)?.place,
+                };
+                match (place, carried) {
+                    (Place::Height { uncertainty, .. }, Some(fluid)) => {
+                        Some(column(self.density(fluid), uncertainty))
+                    }
+                    _ => None,
+                }
+            }
+            (Param::MeanRule(Owner::Arterial(i)), Input::Arterial(j, Component::Mean))
+                if i == j =>
+            {
+                let a = self.arterial.get(i)?;
+                let (_, basis) = a.mean?;
+                Some(rule_gap(a.systolic, a.diastolic, basis))
+            }
+            _ => None,
         }
     }
 
@@ -140,12 +204,12 @@ impl Scene {
                     to_kg_per_m3(r.high)
                 )
             }
-            Param::Place(source) => format!("{} transducer height ±1 cm", self.source_name(source)),
-            Param::Device(source) => format!("{} device accuracy", self.source_name(source)),
-            Param::MeanRule(source) => {
+            Param::Place(owner) => format!("{} transducer height ±1 cm", self.owner_name(owner)),
+            Param::Device(owner) => format!("{} device accuracy", self.owner_name(owner)),
+            Param::MeanRule(owner) => {
                 format!(
                     "{} mean estimated from systolic and diastolic",
-                    self.source_name(source)
+                    self.owner_name(owner)
                 )
             }
         }
@@ -160,5 +224,13 @@ fn rule_gap(systolic: Option<Pressure>, diastolic: Option<Pressure>, basis: Mean
             (rule.other().estimate(s, d) - rule.estimate(s, d)).abs()
         }
         _ => mmhg(0.0),
+    }
+}
+
+/// The owner of a metric's input.
+pub fn input_owner(input: Input) -> Owner {
+    match input {
+        Input::Arterial(i, _) => Owner::Arterial(i),
+        Input::Reading(q) => Owner::Reading(q),
     }
 }

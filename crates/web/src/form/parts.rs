@@ -462,7 +462,7 @@ impl TargetForm {
                 .at_least_percent_of_baseline
                 .map(number_text)
                 .unwrap_or_default(),
-            source: spec.source.clone().unwrap_or_default(),
+            source: spec.citation.clone().unwrap_or_default(),
         }
     }
 
@@ -492,7 +492,7 @@ impl TargetForm {
             at_least: None,
             at_most: None,
             at_least_percent_of_baseline: None,
-            source: Some(self.source.clone()).filter(|s| !s.trim().is_empty()),
+            citation: Some(self.source.clone()).filter(|s| !s.trim().is_empty()),
         };
         match self.kind {
             BoundKind::AtLeast => spec.at_least = Some(required(&self.threshold, &path, errors)?),

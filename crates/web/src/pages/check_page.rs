@@ -25,7 +25,7 @@ use crate::components::theme_toggle::ThemeToggle;
 use crate::components::verdicts::Verdicts;
 use crate::components::warnings_panel::WarningsPanel;
 use crate::session::SessionAction;
-use crate::state::{missed_words, Action, Handle};
+use crate::state::{Action, Handle};
 
 /// Props of [`CheckPage`].
 #[derive(Properties, PartialEq)]
@@ -112,8 +112,7 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                     }
                     if let Some(c) = &checked {
                         <div class={classes!("pane", "pane-verdicts", stale.then_some("stale"))}>
-                            <Verdicts organs={c.report.organs.clone()} stale={stale}
-                                headline={missed_words(c.missed())} />
+                            <Verdicts summary={c.report.summary.clone()} stale={stale} />
                         </div>
                         <section class={classes!("pane", "pane-results", stale.then_some("stale"))}
                             aria-labelledby="h-organs">
