@@ -2,8 +2,9 @@
 //! opens the same check with no server in between.
 //!
 //! The fragment is `p1.` (format and version) followed by the case's compact
-//! JSON, deflated and base64url-encoded. Only the case travels: not the
-//! record over time (too long for a link), nothing about the device. The
+//! JSON, deflated and base64url-encoded. The case travels, with its record
+//! over time when the whole still fits a link ([`encode_with_record`]);
+//! nothing about the device. The
 //! fragment never reaches a web server, and decoding a hostile or damaged
 //! one gives a message, never a panic: sizes are capped before and after
 //! inflating, and the result goes through the same reader as any case file.
@@ -43,15 +44,52 @@ fn damaged(message: impl Into<String>) -> Errors {
 /// assert_eq!(share::decode(&fragment).unwrap(), case);
 /// ```
 pub fn encode(case: &Case) -> String {
-    let json = serde_json::to_vec(&case.without_timeline()).unwrap_or_default();
-    let deflated = miniz_oxide::deflate::compress_to_vec(&json, 9);
-    format!("{PREFIX}{}", URL_SAFE_NO_PAD.encode(deflated))
+    fragment_of(&case.without_timeline())
 }
 
 /// A full link: `base` (any fragment of it dropped) with the case's fragment.
 pub fn link(base: &str, case: &Case) -> String {
-    let base = base.split('#').next().unwrap_or(base);
-    format!("{base}#{}", encode(case))
+    format!("{}#{}", without_fragment(base), encode(case))
+}
+
+fn without_fragment(base: &str) -> &str {
+    base.split('#').next().unwrap_or(base)
+}
+
+fn fragment_of(case: &Case) -> String {
+    let json = serde_json::to_vec(case).unwrap_or_default();
+    let deflated = miniz_oxide::deflate::compress_to_vec(&json, 9);
+    format!("{PREFIX}{}", URL_SAFE_NO_PAD.encode(deflated))
+}
+
+/// The fragment carrying `case` with its record over time, when it fits
+/// within [`MAX_FRAGMENT_CHARS`] (a ward record of a few dozen readings
+/// does; an hour of monitor samples does not).
+///
+/// # Errors
+/// The fragment's length, in characters, when it is too long for a link;
+/// share the case alone ([`encode`]) and send the record as a file.
+pub fn encode_with_record(case: &Case) -> Result<String, usize> {
+    let fragment = fragment_of(case);
+    let chars = fragment.chars().count();
+    if chars > MAX_FRAGMENT_CHARS {
+        Err(chars)
+    } else {
+        Ok(fragment)
+    }
+}
+
+/// A full link carrying `case` with its record over time, as
+/// [`encode_with_record`].
+///
+/// # Errors
+/// As [`encode_with_record`].
+pub fn link_with_record(base: &str, case: &Case) -> Result<String, usize> {
+    Ok(format!(
+        "{}#{}",
+        without_fragment(base),
+        encode_with_record(case)?
+    ))
 }
 
 /// Reads a fragment (with or without its `#`) back into a case.
@@ -119,6 +157,31 @@ mod tests {
         let mut case = demo();
         case.timeline = Some(crate::case::TimelineSpec::default());
         assert!(decode(&encode(&case)).unwrap().timeline.is_none());
+    }
+
+    #[test]
+    fn a_record_travels_when_it_fits_and_says_its_length_when_not() {
+        let mut case = demo();
+        let channel = |n: usize| crate::case::ChannelSpec {
+            channel: "radial line.mean".into(),
+            unit: crate::units::PressureUnit::MmHg,
+            t_s: (0..n).map(|i| i as f64 * 300.0).collect(),
+            values: (0..n).map(|i| 60.0 + (i * 7 % 23) as f64).collect(),
+        };
+        case.timeline = Some(crate::case::TimelineSpec {
+            channels: vec![channel(12)],
+            ..Default::default()
+        });
+        let fragment = encode_with_record(&case).unwrap();
+        assert_eq!(decode(&fragment).unwrap(), case);
+        let link = link_with_record("https://example.invalid/#x", &case).unwrap();
+        assert!(link.starts_with("https://example.invalid/#p1."));
+        case.timeline = Some(crate::case::TimelineSpec {
+            channels: vec![channel(20_000)],
+            ..Default::default()
+        });
+        let too_long = encode_with_record(&case).unwrap_err();
+        assert!(too_long > MAX_FRAGMENT_CHARS, "{too_long}");
     }
 
     #[test]
