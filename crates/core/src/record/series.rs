@@ -4,7 +4,7 @@
 use serde::Serialize;
 
 use super::timeline::Timeline;
-use super::walk::{plan, walk};
+use super::walk::{plan, values_at, walk};
 use crate::organ::{Metric, Organ};
 use crate::scene::Scene;
 use crate::units::{to_mmhg, Pressure};
@@ -91,6 +91,10 @@ pub struct MetricSeries {
     /// The observed stretches, in time order; unobserved time lies between
     /// them.
     pub runs: Vec<Run>,
+    /// The metric at the record's last instant, mmHg, with the last reading
+    /// of every channel in force: a held reading taken last has no duration
+    /// in the runs (nothing is counted after it), but it is drawn.
+    pub end_mmhg: Option<f64>,
 }
 
 /// The organ-level series as data: one entry per followed organ and
@@ -111,6 +115,7 @@ pub struct MetricSeries {
 /// let map = series.iter().find(|s| s.label == "MAP at the heart").unwrap();
 /// assert_eq!(map.runs[0].t_s, vec![0.0, 60.0]);
 /// assert_eq!(map.runs[0].mmhg, vec![70.0, 60.0]);
+/// assert_eq!(map.end_mmhg, Some(60.0));
 /// ```
 pub fn series(scene: &Scene, timeline: &Timeline) -> Vec<MetricSeries> {
     let (from, to) = timeline.span().unwrap_or((0.0, 0.0));
@@ -130,6 +135,7 @@ pub fn series(scene: &Scene, timeline: &Timeline) -> Vec<MetricSeries> {
                 metric,
                 label: organ.metric_label(metric),
                 runs: Vec::new(),
+                end_mmhg: None,
             });
         }
     }
@@ -161,5 +167,11 @@ pub fn series(scene: &Scene, timeline: &Timeline) -> Vec<MetricSeries> {
             run.mmhg.push(vb);
         }
     });
+    let end = values_at(scene, timeline, &plan, to);
+    for (k, v) in feeds.iter().zip(end) {
+        if let Some(s) = k.and_then(|k| out.get_mut(k)) {
+            s.end_mmhg = v.map(to_mmhg);
+        }
+    }
     out
 }

@@ -282,9 +282,11 @@ fn series_keeps_steps_and_gaps() {
     // 600 s is an event too: the first reading's hold ends there.
     assert_eq!(map.runs[0].t_s, vec![0.0, 300.0, 300.0, 600.0, 900.0]);
     assert_eq!(map.runs[0].mmhg, vec![70.0, 70.0, 60.0, 60.0, 60.0]);
-    // The record ends at the last sample: its value holds no time.
+    // The record ends at the last sample: its value holds no time, but it
+    // is the value at the end, for drawing.
     assert_eq!(map.runs[1].t_s, vec![1500.0, 1560.0]);
     assert_eq!(map.runs[1].mmhg, vec![65.0, 65.0]);
+    assert_eq!(map.end_mmhg, Some(66.0));
 }
 
 #[test]

@@ -168,6 +168,38 @@ pub(super) fn walk<F>(
     }
 }
 
+/// Each followed metric's value at the instant `t`, with every channel's
+/// latest sample at or before it in force: a held reading taken at `t`
+/// counts, though it has no duration yet.
+pub(super) fn values_at(
+    scene: &Scene,
+    timeline: &Timeline,
+    plan: &Plan<'_>,
+    t: f64,
+) -> Vec<Option<Pressure>> {
+    let rules = timeline.rules;
+    let segment = plan
+        .starts
+        .iter()
+        .rposition(|s| *s <= t)
+        .unwrap_or_default();
+    let value = |input: Input| match timeline.channels.iter().find(|c| c.input == input) {
+        Some(ch) => {
+            let k = ch.t_s.partition_point(|x| *x <= t).checked_sub(1)?;
+            if ch.t_s.get(k) == Some(&t) {
+                ch.values.get(k).copied()
+            } else {
+                sample(ch, &rules, t, t)
+            }
+        }
+        None => fallback(scene, input),
+    };
+    plan.followed
+        .iter()
+        .map(|f| f.forms.get(segment)?.as_ref()?.eval(value))
+        .collect()
+}
+
 /// The value of a channel over the interval around `mid`, at `x`; `None`
 /// when the interval is unobserved for it.
 fn sample(ch: &Channel, rules: &Rules, mid: f64, x: f64) -> Option<Pressure> {
