@@ -11,7 +11,7 @@
 //   7. screenshots at tablet and phone sizes and in the dark theme
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import { suite, open, checkWithCli, rounded, screenshotPath, until, caseJsonOf } from './harness.mjs';
+import { suite, open, checkWithCli, rounded, screenshotPath, until, caseJsonOf, unfold } from './harness.mjs';
 
 const env = suite();
 
@@ -64,12 +64,20 @@ test('the demo check shows the core\'s numbers', async () => {
   const report = await matchesCli(page);
   const brain = report.organs.find((o) => o.organ === 'brain');
   const cpp = brain.metrics.find((m) => m.metric === 'perfusion');
+  // The answer pinned at the top is the core's summary, line by line.
   const summary = page.getByRole('region', { name: "At the organs' own height" });
-  assert.ok((await summary.textContent()).includes(`Brain · CPP${rounded(cpp.value_mmhg)} mmHg`));
-  assert.ok((await summary.textContent()).includes('Defend radial line: mean at least'));
-  await page.getByText(report.caution).waitFor();
+  const answer = await summary.textContent();
+  assert.ok(answer.includes(report.summary.headline), answer);
+  for (const line of report.summary.organs) {
+    assert.ok(answer.includes(line.label) && (!line.value || answer.includes(line.value)), line.label);
+    if (line.defend) assert.ok(answer.includes(`Defend ${line.defend}`), line.defend);
+  }
+  assert.ok(answer.includes(`CPP ${rounded(cpp.value_mmhg)} mmHg`));
+  assert.ok(answer.includes('DEMO'), 'the answer says it is the demo');
+  await page.getByText(report.caution).waitFor({ state: 'attached' });
   await page.getByRole('note').filter({ hasText: 'Invented demo case' }).waitFor();
   // The assumed ICP is marked where it is entered and where it is used.
+  await unfold(page, 'Other pressures');
   await page.getByRole('group', { name: /ASSUMED ICP/ }).waitFor();
   assert.ok((await organ(page, 'Brain').textContent()).includes('uses an assumed ICP'));
   assert.deepEqual(foreign, [], 'no request leaves 127.0.0.1');
@@ -89,13 +97,17 @@ test('a new position and a new reading change the results as the core predicts',
   const cpp = report.organs.find((o) => o.organ === 'brain').metrics.find((m) => m.metric === 'perfusion');
   assert.notEqual(rounded(cpp.value_mmhg), cppBefore, 'a lower head raises CPP at the tragus');
 
+  await unfold(page, 'Arterial sources');
   const radial = page.getByRole('group', { name: /Arterial source 1/ });
+  await radial.getByText(/separate boxes/).click();
   await radial.getByLabel('Mean', { exact: true }).fill('88');
   const third = await caseChange(page, second);
   assert.equal(JSON.parse(third).arterial[0].mean, '88 mmHg');
   await matchesCli(page);
-  assert.equal(await page.getByText('Invented demo case').count(), 0, 'no demo notice on a changed case');
+  assert.equal(await page.getByText('These numbers belong to no patient').count(), 0, 'no untouched-demo notice on a changed case');
+  await page.getByRole('note').filter({ hasText: 'Still from the invented demo case' }).waitFor();
 
+  await unfold(page, 'Other pressures');
   await page.getByLabel('Pressure to add').selectOption({ label: 'ICP' });
   await page.getByRole('button', { name: 'Add measured' }).click();
   await page.getByRole('group', { name: 'ICP (measured)' }).getByLabel('ICP', { exact: true }).fill('18');
@@ -118,7 +130,9 @@ test('a new position and a new reading change the results as the core predicts',
 test('a unit switch converts the box and leaves the results unchanged', async () => {
   const { page, context } = await open(env.chrome.browser, env.server.url);
   const before = await matchesCli(page);
+  await unfold(page, 'Arterial sources');
   const radial = page.getByRole('group', { name: /Arterial source 1/ });
+  await radial.getByText(/separate boxes/).click();
   const mean = radial.getByLabel('Mean', { exact: true });
   await radial.getByLabel('Mean unit').selectOption('kPa');
   await until(async () => (await mean.inputValue()) === '9.87', 'the mean in kPa');
@@ -146,17 +160,20 @@ test('a bad entry keeps its text, shows its message beside it and marks results 
   const { page, context } = await open(env.chrome.browser, env.server.url);
   const cpp = organ(page, 'Brain').getByRole('group', { name: 'CPP', exact: true }).locator('.value');
   const good = await cpp.textContent();
+  await unfold(page, 'Arterial sources');
   const radial = page.getByRole('group', { name: /Arterial source 1/ });
+  await radial.getByText(/separate boxes/).click();
   const systolic = radial.getByLabel('Systolic', { exact: true });
   await systolic.fill('1o4');
   const message = page.locator('#f-arterial-0-systolic-msg');
   await message.waitFor();
-  assert.ok((await message.textContent()).includes("'1o4 mmHg' is not a number"), await message.textContent());
+  // The text as typed, with no unit added to it.
+  assert.ok((await message.textContent()).includes("'1o4' is not a number"), await message.textContent());
   assert.equal(await systolic.inputValue(), '1o4');
   assert.equal(await systolic.getAttribute('aria-invalid'), 'true');
   assert.equal(await systolic.getAttribute('aria-describedby'), 'f-arterial-0-systolic-msg');
   await page.getByRole('heading', { name: 'Not checked: 1 entry needs attention' }).waitFor();
-  await page.getByText('The results below are STALE').waitFor();
+  await page.getByText('The results are STALE').waitFor();
   assert.equal(await cpp.textContent(), good, 'the last good result stays');
   const live = page.locator('[aria-live="polite"]');
   assert.match(await live.textContent(), /^Not checked: 1 entry needs attention\. The results shown are from the last good check\.$/);
@@ -180,6 +197,7 @@ test('a bad entry keeps its text, shows its message beside it and marks results 
 
 test('targets can be changed, added and removed, each with its source', async () => {
   const { page, context } = await open(env.chrome.browser, env.server.url);
+  await unfold(page, 'Targets');
   await page.getByText(/Change, add or remove targets/).click();
   const first = page.getByRole('group', { name: 'Target 1: Brain: CPP' });
   assert.ok((await first.getByLabel('Source').inputValue()).includes('Brain Trauma Foundation'));
@@ -215,7 +233,7 @@ test('the main flow works with the keyboard alone', async () => {
   const { page, context } = await open(env.chrome.browser, env.server.url);
   const focused = () => page.evaluate(() => document.activeElement?.id || document.activeElement?.textContent);
   await page.keyboard.press('Tab');
-  assert.equal(await focused(), 'Skip to results');
+  assert.equal(await focused(), 'Skip to the answer');
 
   const tabTo = async (id, limit = 60) => {
     for (let i = 0; i < limit; i += 1) {
@@ -233,10 +251,10 @@ test('the main flow works with the keyboard alone', async () => {
   await tabTo('f-position-backrest_deg');
   await page.keyboard.press('Control+A');
   await page.keyboard.type('40');
+  // The steppers are the arrow keys, not tab stops: Tab goes on to the level.
+  await page.keyboard.press('ArrowUp');
   await page.keyboard.press('Tab');
-  await page.keyboard.press('Tab');
-  assert.equal(await focused(), '+5');
-  await page.keyboard.press('Enter');
+  assert.equal(await focused(), 'Measure with this device');
   const stepped = await until(async () => {
     const j = JSON.parse(await caseJsonOf(page));
     return j.position.backrest_deg === 45 && j;

@@ -208,3 +208,27 @@ export async function caseJsonOf(page) {
   await page.locator('.case-json details').evaluate((d) => { d.open = true; });
   return page.getByRole('textbox', { name: 'Case as JSON' }).inputValue();
 }
+
+/**
+ * Opens the folded section of the inputs whose title starts with `title`
+ * (a tap on its summary), and returns it.
+ */
+export async function unfold(page, title) {
+  const fold = page.locator('details.fold').filter({
+    has: page.locator(':scope > summary', { hasText: title }),
+  });
+  if (!(await fold.evaluate((d) => d.open))) await fold.locator(':scope > summary').click();
+  return fold;
+}
+
+/**
+ * The n-th arterial source's card, unfolded with its separate systolic,
+ * diastolic and mean boxes showing.
+ */
+export async function showSource(page, n = 1) {
+  await unfold(page, 'Arterial sources');
+  const card = page.getByRole('group', { name: new RegExp(`^Arterial source ${n}:`) });
+  const boxes = card.locator('details.more').first();
+  if (!(await boxes.evaluate((d) => d.open))) await boxes.locator(':scope > summary').click();
+  return card;
+}

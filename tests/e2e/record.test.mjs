@@ -14,7 +14,7 @@ import { readFileSync, writeFileSync, mkdtempSync, rmSync } from 'node:fs';
 import { execFileSync } from 'node:child_process';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { suite, open, recordWithCli, screenshotPath, root, cli, until, caseJsonOf } from './harness.mjs';
+import { suite, open, recordWithCli, screenshotPath, root, cli, until, caseJsonOf, unfold } from './harness.mjs';
 
 const demoRecord = join(root, 'examples', 'beach-chair-record.csv');
 const demoCsv = readFileSync(demoRecord, 'utf8');
@@ -29,6 +29,12 @@ const env = suite();
 
 
 const panel = (page) => page.getByRole('region', { name: 'Record over time' });
+
+/** Opens the record's other ways in: a monitor export, or the screen as a sample. */
+async function moreWays(page) {
+  const more = panel(page).locator('details.record-more');
+  if (!(await more.evaluate((d) => d.open))) await more.locator(':scope > summary').click();
+}
 
 async function openFile(page, name, text) {
   await page.getByLabel('Open a record file (CSV)').setInputFiles({
@@ -178,6 +184,7 @@ function eightHours(rows = 28800) {
 test('an eight-hour record at 1 Hz imports, analyses and charts without freezing the page', async (t) => {
   const { page, context, problems } = await open(env.chrome.browser, env.server.url);
   // The record's CVP and ICP need readings in the case to give their levels.
+  await unfold(page, 'Other pressures');
   for (const [name, value] of [['ICP', '10'], ['CVP', '6']]) {
     await page.getByLabel('Pressure to add').selectOption({ label: name });
     await page.getByRole('button', { name: 'Add measured' }).click();
@@ -209,6 +216,8 @@ test('an eight-hour record at 1 Hz imports, analyses and charts without freezing
 
   // Typing elsewhere stays quick: the analysis waits for a pause.
   await page.evaluate(() => { window.longest = 0; });
+  await unfold(page, 'Arterial sources');
+  await page.getByRole('group', { name: /Arterial source 1/ }).getByText(/separate boxes/).click();
   const mean = page.getByRole('group', { name: /Arterial source 1/ }).getByLabel('Mean', { exact: true });
   await mean.click();
   const typed0 = Date.now();
@@ -229,6 +238,7 @@ test('an eight-hour record at 1 Hz imports, analyses and charts without freezing
 test('"same as last, new time" adds the readings on screen; the rules change what counts', async () => {
   const { page, context } = await open(env.chrome.browser, env.server.url);
   const p = panel(page);
+  await moreWays(page);
   await p.getByLabel('Time of the entry').selectOption('elapsed');
   const when = p.getByLabel('Elapsed time');
   const add = p.getByRole('button', { name: /Same as last, new time/ });
@@ -249,6 +259,8 @@ test('"same as last, new time" adds the readings on screen; the rules change wha
   await p.getByText(/already has a radial line.systolic sample at 0:05:00/).waitFor();
   assert.equal(await samples(page), 12);
   // The line dips; the next sample takes the new value.
+  await unfold(page, 'Arterial sources');
+  await page.getByRole('group', { name: /Arterial source 1/ }).getByText(/separate boxes/).click();
   await page.getByRole('group', { name: /Arterial source 1/ }).getByLabel('Mean', { exact: true }).fill('60');
   await until(async () => JSON.parse(await caseJsonOf(page)).arterial[0].mean === '60 mmHg', 'the new mean');
   await when.fill('+5');
@@ -281,6 +293,7 @@ test('a position change changes the exposure as the CLI predicts', async () => {
   await cpp.waitFor();
   const before = await cpp.locator('.x-area').textContent();
   await page.getByLabel('Posture').selectOption({ label: 'supine' });
+  await moreWays(page);
   await until(async () => JSON.parse(await caseJsonOf(page)).position.posture === 'supine', 'supine on screen');
   await p.getByLabel('Time of the entry').selectOption('elapsed');
   await p.getByLabel('Elapsed time').fill('0:10:00');
@@ -346,18 +359,21 @@ for (const [name, viewport, colorScheme] of sizes) {
   });
 }
 
-test('the printed handover carries the exposure numbers', async () => {
+test('the printed handover carries the exposure numbers, the charts and the readings', async () => {
   const { page, context } = await open(env.chrome.browser, env.server.url);
   await openFile(page, 'beach-chair-record.csv', demoCsv);
   await panel(page).getByRole('region', { name: 'Brain · CPP' }).waitFor();
   await page.emulateMedia({ media: 'print' });
   const numbers = panel(page).getByRole('group', { name: 'CPP at least 60 mmHg', exact: true });
   assert.ok(await numbers.isVisible(), 'the numbers print');
-  assert.ok(!(await panel(page).getByRole('img').first().isVisible()), 'the charts stay on screen');
+  assert.ok(await panel(page).getByRole('img').first().isVisible(), 'the charts print');
+  const readings = panel(page).getByRole('region', { name: 'Readings of radial line' });
+  assert.ok(await readings.isVisible(), 'the readings print');
+  assert.ok(await readings.locator('.print-only').first().isVisible(), 'as text, not as boxes');
   assert.ok(!(await page.getByLabel('Open a record file (CSV)').isVisible()), 'no controls in print');
   await page.screenshot({ path: screenshotPath('record-print'), fullPage: true });
   const pdf = (await page.pdf({ format: 'A4', printBackground: true })).toString('latin1');
   const pages = (pdf.match(/\/Type\s*\/Page[^s]/g) ?? []).length;
-  assert.ok(pages <= 2, `the handover with its record prints on ${pages} A4 pages`);
+  assert.ok(pages <= 3, `the handover with its record prints on ${pages} A4 pages`);
   await context.close();
 });

@@ -9,11 +9,11 @@
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { deflateRawSync } from 'node:zlib';
-import { suite, open, until, caseJsonOf, screenshotPath } from './harness.mjs';
+import { suite, open, until, caseJsonOf, screenshotPath, showSource, unfold } from './harness.mjs';
 
 const env = suite();
 
-const radial = (page) => page.getByRole('group', { name: /Arterial source 1/ });
+const radial = (page) => showSource(page);
 
 /** A fragment carrying `json` as a share link does (deflate, base64url). */
 const fragmentOf = (json) => `p1.${deflateRawSync(Buffer.from(json)).toString('base64url')}`;
@@ -29,7 +29,7 @@ async function shareLink(page) {
 
 test('a share link opens the same check in a fresh browser', async () => {
   const a = await open(env.chrome.browser, env.server.url);
-  await radial(a.page).getByLabel('Mean', { exact: true }).fill('86');
+  await (await radial(a.page)).getByLabel('Mean', { exact: true }).fill('86');
   await a.page.getByLabel('Posture').selectOption({ label: 'head-up (backrest raised)' });
   const json = await until(async () => {
     const j = await caseJsonOf(a.page);
@@ -49,13 +49,13 @@ test('a share link opens the same check in a fresh browser', async () => {
   const b = await open(env.chrome.browser, env.server.url, { address: link });
   await b.page.getByRole('status').filter({ hasText: 'Opened the check from the shared link' }).waitFor();
   assert.equal(await caseJsonOf(b.page), json, 'the same case');
-  assert.equal(await radial(b.page).getByLabel('Mean', { exact: true }).inputValue(), '86');
+  assert.equal(await (await radial(b.page)).getByLabel('Mean', { exact: true }).inputValue(), '86');
   assert.equal(b.page.url(), env.server.url, 'the fragment is gone from the address bar');
   // A reload shows the check as saved, not the link again.
-  await radial(b.page).getByLabel('Mean', { exact: true }).fill('87');
+  await (await radial(b.page)).getByLabel('Mean', { exact: true }).fill('87');
   await b.page.reload();
   await b.page.getByRole('heading', { name: "At the organs' own height" }).waitFor();
-  assert.equal(await radial(b.page).getByLabel('Mean', { exact: true }).inputValue(), '87');
+  assert.equal(await (await radial(b.page)).getByLabel('Mean', { exact: true }).inputValue(), '87');
   assert.deepEqual([...a.foreign, ...b.foreign], [], 'no request leaves 127.0.0.1');
   assert.deepEqual([...a.problems, ...b.problems], [], 'no script errors');
   await a.context.close();
@@ -68,7 +68,7 @@ test('a link over a saved check keeps that check, with a way back', async () => 
   await a.context.close();
 
   const { page, context } = await open(env.chrome.browser, env.server.url);
-  await radial(page).getByLabel('Mean', { exact: true }).fill('66');
+  await (await radial(page)).getByLabel('Mean', { exact: true }).fill('66');
   const mine = await until(async () => {
     const j = await caseJsonOf(page);
     return JSON.parse(j).arterial[0].mean === '66 mmHg' && j;
@@ -76,7 +76,7 @@ test('a link over a saved check keeps that check, with a way back', async () => 
   await page.goto(link);
   const notice = page.getByRole('status').filter({ hasText: 'The previous check is set aside' });
   await notice.waitFor();
-  assert.equal(await radial(page).getByLabel('Mean', { exact: true }).inputValue(), '74');
+  assert.equal(await (await radial(page)).getByLabel('Mean', { exact: true }).inputValue(), '74');
   await notice.getByRole('button', { name: 'Bring back the previous check' }).click();
   await until(async () => (await caseJsonOf(page)) === mine, 'my check back');
   await context.close();
@@ -84,14 +84,14 @@ test('a link over a saved check keeps that check, with a way back', async () => 
 
 test('a link pasted into the open app opens too', async () => {
   const a = await open(env.chrome.browser, env.server.url);
-  await radial(a.page).getByLabel('Mean', { exact: true }).fill('92');
+  await (await radial(a.page)).getByLabel('Mean', { exact: true }).fill('92');
   await until(async () => JSON.parse(await caseJsonOf(a.page)).arterial[0].mean === '92 mmHg', 'the edit');
   const { link } = await shareLink(a.page);
   await a.context.close();
 
   const { page, context } = await open(env.chrome.browser, env.server.url);
   await page.evaluate((hash) => { window.location.hash = hash; }, link.split('#')[1]);
-  await until(async () => (await radial(page).getByLabel('Mean', { exact: true }).inputValue()) === '92', 'the shared mean');
+  await until(async () => (await (await radial(page)).getByLabel('Mean', { exact: true }).inputValue()) === '92', 'the shared mean');
   await until(async () => !page.url().includes('#'), 'the fragment to leave the address bar');
   await context.close();
 });
@@ -123,7 +123,7 @@ for (const [what, fragment] of fragments) {
     assert.equal(await page.locator('img[src="x"], body script').count(), 0, 'no markup from the link');
     assert.equal(page.url(), env.server.url, 'the fragment is gone');
     // The app still works.
-    await radial(page).getByLabel('Mean', { exact: true }).fill('80');
+    await (await radial(page)).getByLabel('Mean', { exact: true }).fill('80');
     await until(async () => JSON.parse(await caseJsonOf(page)).arterial[0].mean === '80 mmHg', 'an edit');
     await notice.getByRole('button', { name: 'Close' }).click();
     assert.deepEqual(dialogs, [], 'no dialog');

@@ -156,6 +156,26 @@ pub(crate) fn nice_step(span: f64, count: f64) -> f64 {
         .unwrap_or(10.0 * power)
 }
 
+/// The smallest span a pressure axis shows, mmHg: a few mmHg drawn across
+/// the whole height would make a trivial change look steep.
+pub(crate) const MIN_SPAN_MMHG: f64 = 20.0;
+
+/// A pressure axis over `lo..hi`: at least [`MIN_SPAN_MMHG`] tall (widened
+/// about the middle), ends on round steps giving about `count` ticks.
+/// Returns the bottom, the top and the step.
+pub(crate) fn axis(lo: f64, hi: f64, count: f64) -> (f64, f64, f64) {
+    let (lo, hi) = if hi - lo < MIN_SPAN_MMHG {
+        let mid = (lo + hi) / 2.0;
+        (mid - MIN_SPAN_MMHG / 2.0, mid + MIN_SPAN_MMHG / 2.0)
+    } else {
+        (lo, hi)
+    };
+    let step = nice_step(hi - lo, count);
+    let y0 = (lo / step).floor() * step;
+    let y1 = ((hi / step).ceil() * step).max(y0 + step);
+    (y0, y1, step)
+}
+
 fn x_of(deg: f64) -> f64 {
     LEFT + (deg - ANGLES.0) / (ANGLES.1 - ANGLES.0) * (RIGHT - LEFT)
 }
@@ -174,9 +194,7 @@ impl Chart {
         } else {
             (0.0, 100.0)
         };
-        let step = nice_step((hi - lo).max(10.0), 5.0);
-        let y0 = (lo / step).floor() * step;
-        let y1 = ((hi / step).ceil() * step).max(y0 + step);
+        let (y0, y1, step) = axis(lo, hi, 5.0);
         let y_of = |v: f64| BOTTOM - (v - y0) / (y1 - y0) * (BOTTOM - TOP);
         let mut y_ticks = Vec::new();
         let mut v = y0;
@@ -247,6 +265,16 @@ mod tests {
         assert_eq!(nice_step(28.0, 5.0), 10.0);
         assert_eq!(nice_step(9.0, 5.0), 2.0);
         assert_eq!(nice_step(120.0, 5.0), 50.0);
+    }
+
+    #[test]
+    fn a_flat_sweep_is_not_drawn_steep() {
+        // 64 to 66 mmHg: the axis spans at least 20 mmHg about the middle.
+        let (y0, y1, step) = axis(64.0, 66.0, 5.0);
+        assert!(y1 - y0 >= MIN_SPAN_MMHG && y0 <= 64.0 && y1 >= 66.0);
+        assert_eq!(step, 5.0);
+        let (y0, y1, _) = axis(40.0, 110.0, 5.0);
+        assert_eq!((y0, y1), (40.0, 120.0));
     }
 
     #[test]

@@ -14,6 +14,8 @@ pub mod chart;
 pub mod components;
 pub mod fields;
 pub mod form;
+pub mod level;
+pub mod notes;
 pub mod pages;
 pub mod persist;
 pub mod picture;

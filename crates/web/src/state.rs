@@ -10,7 +10,7 @@ use std::rc::Rc;
 use plumbline_core::case::Case;
 use plumbline_core::check;
 use plumbline_core::demo::CASE_JSON;
-use plumbline_core::error::{Error, Errors, Warning};
+use plumbline_core::error::Errors;
 use plumbline_core::landmark::Landmark;
 use plumbline_core::reading::Level;
 use plumbline_core::report::Report;
@@ -118,6 +118,12 @@ pub enum Action {
     Session(SessionAction),
     /// A change to the record over time.
     Record(RecordAction),
+    /// The ward row's blood pressure added to the record (and, when it is
+    /// the latest, to the screen); `now_s` is the device's time of day.
+    AddReading {
+        /// Seconds after midnight.
+        now_s: f64,
+    },
 }
 
 impl State {
@@ -198,22 +204,7 @@ impl State {
     /// The messages to show beside the box at `path`: its errors, then its
     /// warnings from the last check.
     pub fn messages(&self, path: &str) -> Vec<Message> {
-        let mut out: Vec<Message> = self
-            .errors
-            .for_field(path)
-            .map(|e: &Error| Message::Error(e.kind.to_string()))
-            .collect();
-        if let Some(checked) = &self.checked {
-            out.extend(
-                checked
-                    .report
-                    .warnings
-                    .iter()
-                    .filter(|w: &&Warning| w.field == path)
-                    .map(|w| Message::Warning(w.message.clone())),
-            );
-        }
-        out
+        crate::notes::Notes::of(self).at(path)
     }
 }
 
@@ -233,6 +224,9 @@ pub enum Message {
     Error(String),
     /// Worth a second look.
     Warning(String),
+    /// Still to be entered: said calmly, not as a mistake, so a new check
+    /// opens without alarms.
+    Needed(String),
 }
 
 impl Checked {
@@ -279,6 +273,7 @@ impl Reducible for State {
                 let case = next.checked.as_ref().map(|c| &c.case);
                 next.record.apply(action, case, stale);
             }
+            Action::AddReading { now_s } => next.add_reading(now_s),
         }
         let next = Rc::new(next);
         // A page closed before the next render still saves this (`persist`).

@@ -1,14 +1,16 @@
 //! One assumed value: marked as an assumption wherever it appears, because
 //! every result that uses it is only as good as the assumption.
 
+use std::rc::Rc;
+
 use plumbline_core::reading::Quantity;
 use plumbline_core::usual::levels_for;
 use yew::prelude::*;
 
 use crate::components::level_picker::LevelPicker;
 use crate::components::pressure_input::PressureInput;
-use crate::form::{AssumedForm, Edit, LevelPick, ReadingPart, Slot};
-use crate::state::{Action, Handle};
+use crate::form::{AssumedForm, Edit, ReadingPart, Slot};
+use crate::notes::Notes;
 
 /// Props of [`AssumedCard`].
 #[derive(Properties, PartialEq)]
@@ -17,24 +19,21 @@ pub struct AssumedCardProps {
     pub quantity: Quantity,
     /// Its boxes.
     pub assumed: AssumedForm,
-    /// The state.
-    pub state: Handle,
+    /// The messages of the check.
+    pub notes: Rc<Notes>,
+    /// Where changes go.
+    pub onedit: Callback<Edit>,
 }
 
 /// One assumed value.
 #[component]
 pub fn AssumedCard(props: &AssumedCardProps) -> Html {
-    let s = &props.state;
     let q = props.quantity;
     let path = format!("assume.{q}");
-    let onpick = {
-        let d = s.dispatcher();
-        Callback::from(move |pick: LevelPick| d.dispatch(Action::Edit(Edit::AssumedLevel(q, pick))))
-    };
-    let onremove = {
-        let d = s.dispatcher();
-        Callback::from(move |_: MouseEvent| d.dispatch(Action::Edit(Edit::RemoveAssumed(q))))
-    };
+    let onpick = props.onedit.reform(move |pick| Edit::AssumedLevel(q, pick));
+    let onremove = props
+        .onedit
+        .reform(move |_: MouseEvent| Edit::RemoveAssumed(q));
     let usual = q
         .usual_level()
         .map(|l| AttrValue::from(format!("its usual reference: {}", l.label())));
@@ -48,11 +47,11 @@ pub fn AssumedCard(props: &AssumedCardProps) -> Html {
             <p class="hint">{ "Only used while no measured value is entered; every result that uses it says so." }</p>
             <PressureInput label={format!("Assumed {}", q.label())} path={value_path.clone()}
                 slot={Slot::Assumed(q, ReadingPart::Value)} field={props.assumed.value.clone()}
-                messages={s.messages(&value_path)} dispatch={s.dispatcher()} />
+                messages={props.notes.at(&value_path)} onedit={props.onedit.clone()} />
             <LevelPicker path={format!("{path}.level")} level={props.assumed.level.clone()}
                 choices={levels_for(q)} usual={usual}
                 height_slot={Slot::Assumed(q, ReadingPart::LevelHeight)}
-                onpick={onpick} state={s.clone()} dispatch={s.dispatcher()} />
+                onpick={onpick} notes={props.notes.clone()} onedit={props.onedit.clone()} />
             <button type="button" class="remove" onclick={onremove}>
                 { format!("Remove assumed {}", q.label()) }
             </button>

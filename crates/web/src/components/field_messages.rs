@@ -1,5 +1,6 @@
 //! The one place that shows the core's problems and warnings about a box,
-//! in the core's own words, beside the box.
+//! in the core's own words, beside the box; what is merely still to be
+//! entered is said calmly, not as a mistake.
 
 use yew::prelude::*;
 
@@ -27,6 +28,12 @@ pub fn FieldMessages(props: &FieldMessagesProps) -> Html {
                     <p class="msg msg-error">
                         <span class="msg-mark" aria-hidden="true">{ "✕" }</span>
                         <span class="sr-only">{ "Problem: " }</span>
+                        { text }
+                    </p>
+                },
+                Message::Needed(text) => html! {
+                    <p class="msg msg-needed">
+                        <span class="sr-only">{ "Still to enter: " }</span>
                         { text }
                     </p>
                 },

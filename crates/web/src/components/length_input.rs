@@ -7,7 +7,7 @@ use yew::prelude::*;
 use crate::components::unit_input::UnitInput;
 use crate::fields::LengthText;
 use crate::form::{Edit, Slot};
-use crate::state::{Action, Dispatch, Message};
+use crate::state::Message;
 
 /// Props of [`LengthInput`].
 #[derive(Properties, PartialEq)]
@@ -23,26 +23,29 @@ pub struct LengthInputProps {
     /// The core's messages about it.
     pub messages: Vec<Message>,
     /// Where changes go.
-    pub dispatch: Dispatch,
+    pub onedit: Callback<Edit>,
+    /// What an empty box means.
+    #[prop_or_default]
+    pub placeholder: Option<AttrValue>,
 }
 
 /// A length box with its unit switch.
 #[component]
 pub fn LengthInput(props: &LengthInputProps) -> Html {
-    let on_unit = {
-        let (d, slot) = (props.dispatch.clone(), props.slot);
-        Callback::from(move |symbol: String| {
-            if let Some(u) = LengthUnit::ALL.into_iter().find(|u| u.symbol() == symbol) {
-                d.dispatch(Action::Edit(Edit::LengthUnit(slot, u)));
-            }
-        })
-    };
+    let slot = props.slot;
+    let on_unit = crate::components::picked(&props.onedit, move |symbol: String| {
+        LengthUnit::ALL
+            .into_iter()
+            .find(|u| u.symbol() == symbol)
+            .map(|u| Edit::LengthUnit(slot, u))
+    });
     html! {
         <UnitInput label={props.label.clone()} path={props.path.clone()} slot={props.slot}
             text={AttrValue::from(props.field.text.clone())}
             unit={props.field.unit.symbol()}
             units={LengthUnit::ALL.map(LengthUnit::symbol).to_vec()}
             {on_unit} inputmode="text"
-            messages={props.messages.clone()} dispatch={props.dispatch.clone()} />
+            messages={props.messages.clone()} onedit={props.onedit.clone()}
+            placeholder={props.placeholder.clone()} />
     }
 }

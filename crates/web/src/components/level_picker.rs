@@ -7,9 +7,10 @@ use yew::prelude::*;
 
 use crate::components::field_messages::FieldMessages;
 use crate::components::length_input::LengthInput;
-use crate::form::{LevelForm, LevelPick, Slot};
+use crate::form::{Edit, LevelForm, LevelPick, Slot};
+use crate::notes::Notes;
 use crate::show::dom_id;
-use crate::state::{Dispatch, Handle, Message};
+use crate::state::Message;
 
 /// Props of [`LevelPicker`].
 #[derive(Properties, PartialEq)]
@@ -27,10 +28,10 @@ pub struct LevelPickerProps {
     pub height_slot: Slot,
     /// Sends the pick.
     pub onpick: Callback<LevelPick>,
-    /// The state, for the messages.
-    pub state: Handle,
-    /// Where changes go.
-    pub dispatch: Dispatch,
+    /// The messages of the check.
+    pub notes: std::rc::Rc<Notes>,
+    /// Where changes to the height box go.
+    pub onedit: Callback<Edit>,
 }
 
 const USUAL: &str = "usual";
@@ -58,7 +59,7 @@ pub fn LevelPicker(props: &LevelPickerProps) -> Html {
             }
         })
     };
-    let messages: Vec<Message> = props.state.messages(&props.path);
+    let messages: Vec<Message> = props.notes.at(&props.path);
     let pick = props.level.pick;
     html! {
         <>
@@ -82,8 +83,8 @@ pub fn LevelPicker(props: &LevelPickerProps) -> Html {
                 <LengthInput label="Height above the heart reference (negative below)"
                     path={format!("{}.height", props.path)}
                     slot={props.height_slot} field={props.level.height.clone()}
-                    messages={props.state.messages(&format!("{}.height", props.path))}
-                    dispatch={props.dispatch.clone()} />
+                    messages={props.notes.at(&format!("{}.height", props.path))}
+                    onedit={props.onedit.clone()} />
             }
         </>
     }

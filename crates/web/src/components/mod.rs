@@ -1,9 +1,13 @@
 //! Reusable parts of the screen, one component per file.
 
+pub mod angle_input;
 pub mod assumed_card;
+pub mod baseline_panel;
 pub mod case_json;
 pub mod caution;
+pub mod concern_picker;
 pub mod demo_notice;
+pub mod device_level;
 pub mod field_messages;
 pub mod figure_view;
 pub mod heights_table;
@@ -18,6 +22,8 @@ pub mod position_panel;
 pub mod pressure_input;
 pub mod problems;
 pub mod qr_code;
+pub mod quick_position;
+pub mod quick_pressures;
 pub mod reading_card;
 pub mod readings_panel;
 pub mod readings_summary;
@@ -27,10 +33,12 @@ pub mod record_file;
 pub mod record_numbers;
 pub mod record_panel;
 pub mod record_positions;
+pub mod record_readings;
 pub mod record_rules;
 pub mod record_trend;
 pub mod session_notices;
 pub mod share_dialog;
+pub mod site_select;
 pub mod source_card;
 pub mod sources_panel;
 pub mod status_badge;
@@ -40,4 +48,21 @@ pub mod targets_panel;
 pub mod theme_toggle;
 pub mod unit_input;
 pub mod verdicts;
+pub mod ward_entry;
 pub mod warnings_panel;
+
+use yew::Callback;
+
+/// A callback that passes on what `pick` makes of an event, when it makes
+/// something (a select whose value names nothing sends nothing).
+pub fn picked<T: 'static, E: 'static>(
+    to: &Callback<E>,
+    pick: impl Fn(T) -> Option<E> + 'static,
+) -> Callback<T> {
+    let to = to.clone();
+    Callback::from(move |t: T| {
+        if let Some(e) = pick(t) {
+            to.emit(e);
+        }
+    })
+}

@@ -1,37 +1,34 @@
-//! The patient's size: body height (for the geometry) and haematocrit
-//! (for blood density). Nothing that identifies the patient is asked for.
+//! The patient's blood: haematocrit, for blood density. Nothing that
+//! identifies the patient is asked for; the body height is in the quick
+//! path.
+
+use std::rc::Rc;
 
 use yew::prelude::*;
 
-use crate::components::length_input::LengthInput;
 use crate::components::plain_input::PlainInput;
-use crate::form::Slot;
-use crate::state::Handle;
+use crate::form::{Edit, Slot};
+use crate::notes::Notes;
 
 /// Props of [`PatientPanel`].
 #[derive(Properties, PartialEq)]
 pub struct PatientPanelProps {
-    /// The state.
-    pub state: Handle,
+    /// The haematocrit as typed.
+    pub haematocrit: AttrValue,
+    /// The messages of the check.
+    pub notes: Rc<Notes>,
+    /// Where changes go.
+    pub onedit: Callback<Edit>,
 }
 
-/// The patient's size.
+/// The haematocrit.
 #[component]
 pub fn PatientPanel(props: &PatientPanelProps) -> Html {
-    let s = &props.state;
     html! {
-        <fieldset class="group" id="f-patient">
-            <legend>{ "Patient size" }</legend>
-            <div class="row">
-                <LengthInput label="Body height" path="patient.height" slot={Slot::Height}
-                    field={s.form.height.clone()} messages={s.messages("patient.height")}
-                    dispatch={s.dispatcher()} />
-                <PlainInput label="Haematocrit (optional)" path="patient.haematocrit_percent"
-                    slot={Slot::Haematocrit} text={s.form.haematocrit.clone()}
-                    messages={s.messages("patient.haematocrit_percent")}
-                    inputmode="decimal" suffix="%" placeholder="not given"
-                    dispatch={s.dispatcher()} />
-            </div>
-        </fieldset>
+        <PlainInput label="Haematocrit (optional)" path="patient.haematocrit_percent"
+            slot={Slot::Haematocrit} text={props.haematocrit.clone()}
+            messages={props.notes.at("patient.haematocrit_percent")}
+            inputmode="decimal" suffix="%" placeholder="not given"
+            onedit={props.onedit.clone()} />
     }
 }

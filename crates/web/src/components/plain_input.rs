@@ -7,7 +7,7 @@ use yew::prelude::*;
 use crate::components::field_messages::FieldMessages;
 use crate::form::{Edit, Slot};
 use crate::show::dom_id;
-use crate::state::{Action, Dispatch, Message};
+use crate::state::Message;
 
 /// Props of [`PlainInput`].
 #[derive(Properties, PartialEq)]
@@ -23,7 +23,7 @@ pub struct PlainInputProps {
     /// The core's messages about it.
     pub messages: Vec<Message>,
     /// Where changes go.
-    pub dispatch: Dispatch,
+    pub onedit: Callback<Edit>,
     /// The keyboard to offer (`decimal`, `text`).
     #[prop_or(AttrValue::Static("text"))]
     pub inputmode: AttrValue,
@@ -39,6 +39,12 @@ pub struct PlainInputProps {
     /// A box of several lines that wraps long text (a guideline's name).
     #[prop_or_default]
     pub multiline: bool,
+    /// Keys pressed in the box (arrow keys stepping an angle).
+    #[prop_or_default]
+    pub onkeydown: Option<Callback<KeyboardEvent>>,
+    /// What the arrow keys do, for assistive technology.
+    #[prop_or_default]
+    pub keys: Option<AttrValue>,
     /// Extra content after the box (± buttons).
     #[prop_or_default]
     pub children: Html,
@@ -51,17 +57,14 @@ pub fn PlainInput(props: &PlainInputProps) -> Html {
     let msg_id = format!("{id}-msg");
     let slot = props.slot;
     let multiline = props.multiline;
-    let oninput = {
-        let d = props.dispatch.clone();
-        Callback::from(move |e: InputEvent| {
-            let text = if multiline {
-                e.target_unchecked_into::<HtmlTextAreaElement>().value()
-            } else {
-                e.target_unchecked_into::<HtmlInputElement>().value()
-            };
-            d.dispatch(Action::Edit(Edit::Text(slot, text)));
-        })
-    };
+    let oninput = props.onedit.reform(move |e: InputEvent| {
+        let text = if multiline {
+            e.target_unchecked_into::<HtmlTextAreaElement>().value()
+        } else {
+            e.target_unchecked_into::<HtmlInputElement>().value()
+        };
+        Edit::Text(slot, text)
+    });
     let invalid = props
         .messages
         .iter()
@@ -81,6 +84,8 @@ pub fn PlainInput(props: &PlainInputProps) -> Html {
                     <input id={id.clone()} type="text" inputmode={props.inputmode.clone()}
                         autocomplete="off" spellcheck="false"
                         value={props.text.clone()} {oninput}
+                        onkeydown={props.onkeydown.clone()}
+                        aria-keyshortcuts={props.keys.clone()}
                         placeholder={props.placeholder.clone()}
                         maxlength={props.maxlength.map(|m| m.to_string())}
                         aria-invalid={if invalid { "true" } else { "false" }}

@@ -1,51 +1,45 @@
-//! The position picker: posture, the angles it sets (each can be typed or
-//! stepped), and where each arm is.
+//! The position in detail: every angle the posture sets besides the one
+//! the quick path shows (each typed, or stepped with the arrow keys), and
+//! where each arm is.
 
-use plumbline_core::geometry::{Lie, Posture};
+use std::rc::Rc;
+
 use plumbline_core::landmark::Side;
 use web_sys::HtmlSelectElement;
 use yew::prelude::*;
 
+use crate::components::angle_input::AngleInput;
 use crate::components::field_messages::FieldMessages;
 use crate::components::plain_input::PlainInput;
 use crate::fields::number_text;
-use crate::form::{AngleKey, ArmChoice, ArmForm, Edit, Joint, Slot};
-use crate::state::{Action, Handle};
+use crate::form::{AngleKey, ArmChoice, ArmForm, Edit, Joint, PositionForm, Slot};
+use crate::notes::Notes;
 
 /// Props of [`PositionPanel`].
 #[derive(Properties, PartialEq)]
 pub struct PositionPanelProps {
-    /// The state.
-    pub state: Handle,
+    /// The position's boxes.
+    pub position: PositionForm,
+    /// The messages of the check.
+    pub notes: Rc<Notes>,
+    /// Where changes go.
+    pub onedit: Callback<Edit>,
 }
 
-fn posture_key(p: Posture) -> String {
-    Posture::ALL
-        .iter()
-        .position(|q| *q == p)
-        .map(|i| i.to_string())
-        .unwrap_or_default()
-}
-
-fn arm(state: &Handle, side: Side, form: &ArmForm) -> Html {
+fn arm(props: &PositionPanelProps, side: Side, form: &ArmForm) -> Html {
     let (name, path) = match side {
         Side::Left => ("Left arm", "position.left_arm"),
         Side::Right => ("Right arm", "position.right_arm"),
     };
     let id = format!("f-{}", path.replace('.', "-"));
-    let onchange = {
-        let d = state.dispatcher();
-        Callback::from(move |e: Event| {
-            let key = e.target_unchecked_into::<HtmlSelectElement>().value();
-            let choice = key
-                .parse::<usize>()
-                .ok()
-                .and_then(|i| ArmChoice::ALL.get(i).copied());
-            if let Some(choice) = choice {
-                d.dispatch(Action::Edit(Edit::Arm(side, choice)));
-            }
-        })
-    };
+    let onchange = crate::components::picked(&props.onedit, move |e: Event| {
+        let key = e.target_unchecked_into::<HtmlSelectElement>().value();
+        let choice = key
+            .parse::<usize>()
+            .ok()
+            .and_then(|i| ArmChoice::ALL.get(i).copied());
+        choice.map(|c| Edit::Arm(side, c))
+    });
     let joint = |joint: Joint, label: &'static str, text: &str| {
         let key = match joint {
             Joint::Shoulder => "shoulder_flexion_deg",
@@ -55,8 +49,8 @@ fn arm(state: &Handle, side: Side, form: &ArmForm) -> Html {
         html! {
             <PlainInput label={format!("{name}: {label}")} path={p.clone()}
                 slot={Slot::ArmAngle(side, joint)} text={text.to_owned()}
-                messages={state.messages(&p)} inputmode="decimal" suffix="°"
-                dispatch={state.dispatcher()} />
+                messages={props.notes.at(&p)} inputmode="decimal" suffix="°"
+                onedit={props.onedit.clone()} />
         }
     };
     html! {
@@ -69,7 +63,7 @@ fn arm(state: &Handle, side: Side, form: &ArmForm) -> Html {
                     }) }
                 </select>
                 <FieldMessages id={format!("f-{}-msg", path.replace('.', "-"))}
-                    messages={state.messages(path)} />
+                    messages={props.notes.at(path)} />
             </div>
             if form.choice == ArmChoice::Angles {
                 <div class="row">
@@ -81,70 +75,33 @@ fn arm(state: &Handle, side: Side, form: &ArmForm) -> Html {
     }
 }
 
-/// The position picker.
+/// The position in detail.
 #[component]
 pub fn PositionPanel(props: &PositionPanelProps) -> Html {
-    let s = &props.state;
-    let position = &s.form.position;
-    let onposture = {
-        let d = s.dispatcher();
-        Callback::from(move |e: Event| {
-            let key = e.target_unchecked_into::<HtmlSelectElement>().value();
-            let posture = key
-                .parse::<usize>()
-                .ok()
-                .and_then(|i| Posture::ALL.get(i).copied());
-            d.dispatch(Action::Edit(Edit::Posture(posture)));
-        })
-    };
-    let on_back = position.posture.is_none_or(|p| p.lie() == Lie::FaceUp);
-    let angle = |key: AngleKey| {
-        let path = key.path();
-        let step = |delta: f64| {
-            let d = s.dispatcher();
-            Callback::from(move |_: MouseEvent| d.dispatch(Action::Edit(Edit::Step(key, delta))))
-        };
-        let placeholder = position.preset(key).map(number_text);
-        html! {
-            <PlainInput label={key.label()} path={path.clone()} slot={Slot::Angle(key)}
-                text={position.angle(key).to_owned()} messages={s.messages(&path)}
-                inputmode={if key.signed() { "text" } else { "decimal" }} suffix="°"
-                placeholder={placeholder}
-                dispatch={s.dispatcher()}>
-                <button type="button" class="step" onclick={step(-5.0)}
-                    aria-label={format!("{} 5 degrees less", key.label())}>{ "−5" }</button>
-                <button type="button" class="step" onclick={step(5.0)}
-                    aria-label={format!("{} 5 degrees more", key.label())}>{ "+5" }</button>
-            </PlainInput>
-        }
-    };
+    let position = &props.position;
+    if position.posture.is_none() {
+        return html! { <p class="hint">{ "Choose a posture first." }</p> };
+    }
+    let on_back = position
+        .posture
+        .is_some_and(|p| p.lie() == plumbline_core::geometry::Lie::FaceUp);
+    let main = position.main_angle();
     html! {
-        <fieldset class="group" id="f-position">
-            <legend>{ "Position" }</legend>
-            <div class="field">
-                <label for="f-position-posture">{ "Posture" }</label>
-                <select id="f-position-posture" onchange={onposture}>
-                    <option value="none" selected={position.posture.is_none()}>{ "not given" }</option>
-                    { for Posture::ALL.iter().map(|p| html! {
-                        <option value={posture_key(*p)} selected={position.posture == Some(*p)}>
-                            { p.label() }
-                        </option>
+        <div class="position-detail" id="f-position-detail">
+            <p class="hint">{ "Grey numbers are the posture's presets: type to override, or step by 5° with the arrow keys." }</p>
+            <div class="angles">
+                { for AngleKey::ALL.into_iter()
+                    .filter(|k| Some(*k) != main && (on_back || *k != AngleKey::Backrest))
+                    .map(|k| html! {
+                        <AngleInput angle={k} text={position.angle(k).to_owned()}
+                            preset={position.preset(k).map(|v| AttrValue::from(number_text(v)))}
+                            messages={props.notes.at(&k.path())} onedit={props.onedit.clone()} />
                     }) }
-                </select>
-                <FieldMessages id="f-position-msg" messages={s.messages("position")} />
             </div>
-            if position.posture.is_some() {
-                <p class="hint">{ "Grey numbers are the posture's presets; type to override, or step by 5°." }</p>
-                <div class="angles">
-                    { for AngleKey::ALL.into_iter()
-                        .filter(|k| on_back || *k != AngleKey::Backrest)
-                        .map(angle) }
-                </div>
-                <div class="row">
-                    { arm(s, Side::Left, &position.left) }
-                    { arm(s, Side::Right, &position.right) }
-                </div>
-            }
-        </fieldset>
+            <div class="row">
+                { arm(props, Side::Left, &position.left) }
+                { arm(props, Side::Right, &position.right) }
+            </div>
+        </div>
     }
 }

@@ -1,26 +1,34 @@
 //! The other pressures: measured readings, assumed values, and the picker
 //! to add one.
 
+use std::collections::BTreeMap;
+use std::rc::Rc;
+
 use plumbline_core::reading::Quantity;
 use web_sys::HtmlSelectElement;
 use yew::prelude::*;
 
 use crate::components::assumed_card::AssumedCard;
 use crate::components::reading_card::ReadingCard;
-use crate::form::Edit;
-use crate::state::{Action, Handle};
+use crate::form::{AssumedForm, Edit, ReadingForm};
+use crate::notes::Notes;
 
 /// Props of [`ReadingsPanel`].
 #[derive(Properties, PartialEq)]
 pub struct ReadingsPanelProps {
-    /// The state.
-    pub state: Handle,
+    /// The measured readings' boxes.
+    pub readings: BTreeMap<Quantity, ReadingForm>,
+    /// The assumed values' boxes.
+    pub assumed: BTreeMap<Quantity, AssumedForm>,
+    /// The messages of the check.
+    pub notes: Rc<Notes>,
+    /// Where changes go.
+    pub onedit: Callback<Edit>,
 }
 
 /// The other pressures.
 #[component]
 pub fn ReadingsPanel(props: &ReadingsPanelProps) -> Html {
-    let s = &props.state;
     let chosen = use_state(|| Quantity::Icp);
     let onchoose = {
         let chosen = chosen.clone();
@@ -32,23 +40,24 @@ pub fn ReadingsPanel(props: &ReadingsPanelProps) -> Html {
         })
     };
     let add = |edit: fn(Quantity) -> Edit| {
-        let d = s.dispatcher();
         let q = *chosen;
-        Callback::from(move |_: MouseEvent| d.dispatch(Action::Edit(edit(q))))
+        props.onedit.reform(move |_: MouseEvent| edit(q))
     };
-    let has_reading = s.form.readings.contains_key(&*chosen);
-    let has_assumed = s.form.assumed.contains_key(&*chosen);
+    let has_reading = props.readings.contains_key(&*chosen);
+    let has_assumed = props.assumed.contains_key(&*chosen);
     html! {
         <section class="panel" aria-labelledby="h-readings">
             <h3 id="h-readings">{ "Other pressures" }</h3>
-            if s.form.readings.is_empty() && s.form.assumed.is_empty() {
+            if props.readings.is_empty() && props.assumed.is_empty() {
                 <p class="hint">{ "None entered." }</p>
             }
-            { for s.form.readings.iter().map(|(q, r)| html! {
-                <ReadingCard quantity={*q} reading={r.clone()} state={s.clone()} />
+            { for props.readings.iter().map(|(q, r)| html! {
+                <ReadingCard quantity={*q} reading={r.clone()} notes={props.notes.clone()}
+                    onedit={props.onedit.clone()} />
             }) }
-            { for s.form.assumed.iter().map(|(q, a)| html! {
-                <AssumedCard quantity={*q} assumed={a.clone()} state={s.clone()} />
+            { for props.assumed.iter().map(|(q, a)| html! {
+                <AssumedCard quantity={*q} assumed={a.clone()} notes={props.notes.clone()}
+                    onedit={props.onedit.clone()} />
             }) }
             <div class="adder">
                 <div class="field">

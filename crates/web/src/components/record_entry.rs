@@ -7,39 +7,34 @@ use web_sys::{HtmlInputElement, HtmlSelectElement};
 use yew::prelude::*;
 
 use crate::components::field_messages::FieldMessages;
-use crate::record::entry::readings;
+use crate::components::ward_entry::time_of_day;
 use crate::record::when::WhenMode;
-use crate::record::RecordAction;
-use crate::state::{Action, Handle, Message};
+use crate::record::{Record, RecordAction};
+use crate::state::{Action, Dispatch, Message};
 
 /// Props of [`RecordEntry`].
 #[derive(Properties, PartialEq)]
 pub struct RecordEntryProps {
-    /// The state.
-    pub state: Handle,
-}
-
-/// This device's time of day, seconds after midnight.
-fn time_of_day() -> f64 {
-    let now = js_sys::Date::new_0();
-    f64::from(now.get_hours()) * 3600.0
-        + f64::from(now.get_minutes()) * 60.0
-        + f64::from(now.get_seconds())
+    /// The record.
+    pub record: Record,
+    /// What one sample adds: each channel with its value, in words.
+    pub adds: Vec<String>,
+    /// Where changes go.
+    pub dispatch: Dispatch,
 }
 
 /// The entry controls.
 #[component]
 pub fn RecordEntry(props: &RecordEntryProps) -> Html {
-    let s = &props.state;
-    let r = &s.record;
+    let r = &props.record;
     let act = |make: fn(f64) -> RecordAction| {
-        let d = s.dispatcher();
+        let d = props.dispatch.clone();
         Callback::from(move |_: MouseEvent| d.dispatch(Action::Record(make(time_of_day()))))
     };
     let onadd = act(|now_s| RecordAction::AddSample { now_s });
     let onmark = act(|now_s| RecordAction::MarkPosition { now_s });
     let onmode = {
-        let d = s.dispatcher();
+        let d = props.dispatch.clone();
         Callback::from(move |e: Event| {
             let key = e.target_unchecked_into::<HtmlSelectElement>().value();
             if let Some(mode) = WhenMode::from_key(&key) {
@@ -48,21 +43,14 @@ pub fn RecordEntry(props: &RecordEntryProps) -> Html {
         })
     };
     let ontext = {
-        let d = s.dispatcher();
+        let d = props.dispatch.clone();
         Callback::from(move |e: InputEvent| {
             let text = e.target_unchecked_into::<HtmlInputElement>().value();
             d.dispatch(Action::Record(RecordAction::WhenText(text)));
         })
     };
     let mode = r.when.mode;
-    let adds: Vec<String> = s
-        .checked
-        .as_ref()
-        .map(|c| readings(&c.case, &r.spec))
-        .unwrap_or_default()
-        .iter()
-        .map(|(name, v)| format!("{name} {v}"))
-        .collect();
+    let adds = &props.adds;
     let messages: Vec<Message> = r.entry.iter().cloned().map(Message::Error).collect();
     let placeholder = match (mode, r.last_s()) {
         (WhenMode::Clock, _) => "08:40".to_owned(),

@@ -6,52 +6,47 @@ use plumbline_core::record::csv;
 use yew::prelude::*;
 
 use crate::browser;
-use crate::state::Handle;
+use crate::record::Record;
+use crate::state::Checked;
 
 /// Props of [`RecordExports`].
 #[derive(Properties, PartialEq)]
 pub struct RecordExportsProps {
-    /// The state.
-    pub state: Handle,
+    /// The record.
+    pub record: Record,
+    /// The last complete check.
+    pub checked: Option<std::rc::Rc<Checked>>,
 }
 
 /// The download buttons.
 #[component]
 pub fn RecordExports(props: &RecordExportsProps) -> Html {
     let outcome = use_state(|| None::<String>);
-    let download = |name: &'static str,
-                    make: fn(&crate::state::State) -> Result<String, String>| {
-        let s = props.state.clone();
-        let outcome = outcome.clone();
-        Callback::from(move |_: MouseEvent| {
-            let said = match make(&s) {
-                Ok(text) if browser::download(name, &text) => {
-                    format!("{name} saved on this device.")
-                }
-                Ok(_) => format!("This browser refused to save {name}."),
-                Err(why) => format!("{name} not made: {why}"),
-            };
-            outcome.set(Some(said));
-        })
-    };
-    let onseries = download("plumbline-organ-series.csv", |s| {
-        let case = s
-            .checked
-            .as_ref()
-            .map(|c| &c.case)
-            .ok_or("there is no complete check")?;
-        s.record.series_csv(case).map_err(|e| e.to_string())
+    let download =
+        |name: &'static str, make: fn(&Record, Option<&Checked>) -> Result<String, String>| {
+            let (record, checked) = (props.record.clone(), props.checked.clone());
+            let outcome = outcome.clone();
+            Callback::from(move |_: MouseEvent| {
+                let said = match make(&record, checked.as_deref()) {
+                    Ok(text) if browser::download(name, &text) => {
+                        format!("{name} saved on this device.")
+                    }
+                    Ok(_) => format!("This browser refused to save {name}."),
+                    Err(why) => format!("{name} not made: {why}"),
+                };
+                outcome.set(Some(said));
+            })
+        };
+    let onseries = download("plumbline-organ-series.csv", |r, c| {
+        let case = c.map(|c| &c.case).ok_or("there is no complete check")?;
+        r.series_csv(case).map_err(|e| e.to_string())
     });
-    let oncase = download("plumbline-case-with-record.json", |s| {
-        let case = s
-            .checked
-            .as_ref()
-            .map(|c| &c.case)
-            .ok_or("there is no complete check")?;
-        Ok(s.record.join(case).to_json())
+    let oncase = download("plumbline-case-with-record.json", |r, c| {
+        let case = c.map(|c| &c.case).ok_or("there is no complete check")?;
+        Ok(r.join(case).to_json())
     });
-    let onsamples = download("plumbline-record.csv", |s| {
-        Ok(csv::export(&s.record.timeline()))
+    let onsamples = download("plumbline-record.csv", |r, _| {
+        Ok(csv::export(&r.timeline()))
     });
     html! {
         <section class="record-exports" aria-labelledby="h-record-exports">

@@ -1,9 +1,13 @@
-//! The record over time: open a monitor export or add entries at the
-//! bedside, then the core's exposure outside each target, organ by organ,
+//! The record over time: a blood pressure and its time added at the
+//! bedside in one row, right above the trends and the readings they come
+//! from; or a monitor export opened, or the screen's readings taken as a
+//! sample. Then the core's exposure outside each target, organ by organ,
 //! with a trend chart, the rules in force and the downloads.
 //!
 //! The analysis runs at once after a record action, and after a short
 //! pause in typing elsewhere, so a long record never slows a keystroke.
+
+use std::rc::Rc;
 
 use gloo::timers::callback::Timeout;
 use plumbline_core::record::{elapsed_words, Sampling};
@@ -13,11 +17,14 @@ use crate::components::record_entry::RecordEntry;
 use crate::components::record_exports::RecordExports;
 use crate::components::record_file::RecordFile;
 use crate::components::record_positions::RecordPositions;
+use crate::components::record_readings::RecordReadings;
 use crate::components::record_rules::RecordRules;
 use crate::components::record_trend::RecordTrend;
-use crate::record::{capital, RecordAction};
+use crate::components::ward_entry::WardEntry;
+use crate::record::entry::{reading_rows, readings};
+use crate::record::{capital, Record, RecordAction};
 use crate::show::path_words;
-use crate::state::{Action, Handle};
+use crate::state::{Action, Checked, Dispatch};
 
 /// How long typing must pause before the record is analysed again, ms.
 const PAUSE_MS: u32 = 300;
@@ -25,17 +32,24 @@ const PAUSE_MS: u32 = 300;
 /// Props of [`RecordPanel`].
 #[derive(Properties, PartialEq)]
 pub struct RecordPanelProps {
-    /// The state.
-    pub state: Handle,
+    /// The record.
+    pub record: Record,
+    /// The last complete check.
+    pub checked: Option<Rc<Checked>>,
+    /// Whether the boxes differ from the last complete check.
+    pub stale: bool,
+    /// The arterial sources' names, in order.
+    pub sources: Vec<AttrValue>,
+    /// Where changes go.
+    pub dispatch: Dispatch,
 }
 
 /// The record panel.
 #[component]
 pub fn RecordPanel(props: &RecordPanelProps) -> Html {
-    let s = &props.state;
-    let r = &s.record;
+    let r = &props.record;
     {
-        let d = s.dispatcher();
+        let d = props.dispatch.clone();
         use_effect_with((r.pending, r.generation), move |(pending, _)| {
             let timer = pending.then(|| {
                 Timeout::new(PAUSE_MS, move || {
@@ -46,7 +60,7 @@ pub fn RecordPanel(props: &RecordPanelProps) -> Html {
         });
     }
     let onclose = {
-        let d = s.dispatcher();
+        let d = props.dispatch.clone();
         Callback::from(move |_: MouseEvent| {
             let sure = web_sys::window().is_some_and(|w| {
                 w.confirm_with_message(
@@ -62,7 +76,7 @@ pub fn RecordPanel(props: &RecordPanelProps) -> Html {
     let clock = r.clock_start_s();
     let a = r.analysis.clone();
     let summary = match (&a, r.is_empty()) {
-        (_, true) => "No record yet: open a monitor export, or add the readings on screen over time. A record keeps no date.".to_owned(),
+        (_, true) => "No record yet: add a blood pressure with its time above, or open a monitor export. A record keeps no date.".to_owned(),
         (None, false) => format!("{} samples.", r.samples()),
         (Some(a), false) => {
             let e = &a.exposure;
@@ -84,7 +98,29 @@ pub fn RecordPanel(props: &RecordPanelProps) -> Html {
             words
         }
     };
-    let stale = s.is_stale() || !r.fit.is_empty();
+    let stale = props.stale || !r.fit.is_empty();
+    let onrecord = {
+        let d = props.dispatch.clone();
+        Callback::from(move |a: RecordAction| d.dispatch(Action::Record(a)))
+    };
+    let onadd = {
+        let d = props.dispatch.clone();
+        Callback::from(move |now_s: f64| d.dispatch(Action::AddReading { now_s }))
+    };
+    let ward_id = props
+        .sources
+        .get(r.ward.source)
+        .cloned()
+        .unwrap_or_default();
+    let rows = reading_rows(&r.spec, &ward_id);
+    let adds: Vec<String> = props
+        .checked
+        .as_ref()
+        .map(|c| readings(&c.case, &r.spec))
+        .unwrap_or_default()
+        .iter()
+        .map(|(name, v)| format!("{name} {v}"))
+        .collect();
     html! {
         <section class={classes!("pane", "pane-record", (!r.is_empty()).then_some("has-record"))} aria-labelledby="h-record">
             <svg class="defs" width="0" height="0" aria-hidden="true" focusable="false">
@@ -100,14 +136,18 @@ pub fn RecordPanel(props: &RecordPanelProps) -> Html {
             <h2 id="h-record">{ "Record over time" }</h2>
             <p class="record-summary">{ summary }</p>
             <p class="sr-only" role="status">{ r.note.clone().unwrap_or_default() }</p>
-            <div class="record-tools">
-                <RecordFile dispatch={s.dispatcher()} problems={r.file.clone()}
-                    opened={r.opened.clone().map(AttrValue::from)} />
-                <RecordEntry state={s.clone()} />
-            </div>
+            <WardEntry sources={props.sources.clone()} ward={r.ward.clone()}
+                problem={r.entry.clone().map(AttrValue::from)} onchange={onrecord.clone()} onadd={onadd}
+                samples={r.samples()} />
+            <details class="more record-more" open={r.file.is_some()}>
+                <summary>{ "Open a monitor export, or take every reading on screen as a sample" }</summary>
+                <div class="record-tools">
+                    <RecordFile dispatch={props.dispatch.clone()} problems={r.file.clone()}
+                        opened={r.opened.clone().map(AttrValue::from)} />
+                    <RecordEntry record={r.clone()} adds={adds} dispatch={props.dispatch.clone()} />
+                </div>
+            </details>
             if !r.is_empty() {
-                <RecordPositions start={r.start.clone()} changes={r.spec.positions.clone()}
-                    dispatch={s.dispatcher()} />
                 if !r.fit.is_empty() {
                     <section class="problems" aria-labelledby="h-record-fit">
                         <h3 id="h-record-fit">
@@ -151,11 +191,15 @@ pub fn RecordPanel(props: &RecordPanelProps) -> Html {
                         </details>
                     </div>
                 }
+                <RecordReadings id={ward_id.clone()} rows={rows} clock_start={clock}
+                    onchange={onrecord.clone()} />
+                <RecordPositions start={r.start.clone()} changes={r.spec.positions.clone()}
+                    dispatch={props.dispatch.clone()} />
                 <RecordRules texts={r.rule_texts.clone()}
                     in_force={a.as_ref().map(|a| AttrValue::from(a.exposure.rules.clone()))}
                     definitions={a.as_ref().map(|a| AttrValue::from(a.exposure.definitions))}
-                    fit={r.fit.clone()} dispatch={s.dispatcher()} />
-                <RecordExports state={s.clone()} />
+                    fit={r.fit.clone()} dispatch={props.dispatch.clone()} />
+                <RecordExports record={r.clone()} checked={props.checked.clone()} />
                 <button type="button" class="remove" onclick={onclose}>{ "Close the record" }</button>
             }
         </section>

@@ -1,7 +1,9 @@
 //! Share: a header button that opens a dialog with the link to this check
 //! (copyable text) and its QR code. The link carries the case itself in its
-//! fragment, which never reaches a web server; nothing is sent anywhere by
-//! the app: the clinician chooses who gets the link.
+//! fragment, which never reaches a web server, with its record over time
+//! when the whole fits a link (else it says so and offers the record as a
+//! file); nothing is sent anywhere by the app: the clinician chooses who
+//! gets the link.
 
 use plumbline_core::share;
 use web_sys::HtmlDialogElement;
@@ -9,13 +11,30 @@ use yew::prelude::*;
 
 use crate::browser;
 use crate::components::qr_code::QrCode;
-use crate::state::Handle;
+use crate::record::Record;
+use crate::state::Checked;
 
 /// Props of [`ShareDialog`].
 #[derive(Properties, PartialEq)]
 pub struct ShareDialogProps {
-    /// The state.
-    pub state: Handle,
+    /// The last complete check.
+    pub checked: Option<std::rc::Rc<Checked>>,
+    /// The record over time.
+    pub record: Record,
+    /// Whether the boxes differ from the last complete check.
+    pub stale: bool,
+}
+
+/// What the link carries.
+#[derive(Clone, Debug, PartialEq)]
+enum Carries {
+    /// The case alone: there is no record.
+    Case,
+    /// The case and its record.
+    Record,
+    /// The case alone: the record would make the link this many
+    /// characters long.
+    TooLong(usize),
 }
 
 /// The share button and its dialog.
@@ -55,13 +74,33 @@ pub fn ShareDialog(props: &ShareDialogProps) -> Html {
         let open = open.clone();
         Callback::from(move |_: Event| open.set(false))
     };
-    let s = &props.state;
-    let link = (*open)
+    let made = (*open)
         .then(|| {
-            let case = &s.checked.as_ref()?.case;
-            Some(share::link(&browser::page_address()?, case))
+            let case = &props.checked.as_ref()?.case;
+            let base = browser::page_address()?;
+            Some(if props.record.is_empty() {
+                (share::link(&base, case), Carries::Case)
+            } else {
+                match share::link_with_record(&base, &props.record.join(case)) {
+                    Ok(link) => (link, Carries::Record),
+                    Err(n) => (share::link(&base, case), Carries::TooLong(n)),
+                }
+            })
         })
         .flatten();
+    let link = made.as_ref().map(|(l, _)| l.clone());
+    let carries = made.map(|(_, c)| c);
+    let onfile = {
+        let (record, checked) = (props.record.clone(), props.checked.clone());
+        Callback::from(move |_: MouseEvent| {
+            if let Some(c) = &checked {
+                browser::download(
+                    "plumbline-case-with-record.json",
+                    &record.join(&c.case).to_json(),
+                );
+            }
+        })
+    };
     let oncopy = {
         let (copied, link) = (copied.clone(), link.clone());
         Callback::from(move |_: MouseEvent| {
@@ -85,11 +124,22 @@ pub fn ShareDialog(props: &ShareDialogProps) -> Html {
                     <h2 id="h-share">{ "Share this check" }</h2>
                     if let Some(link) = &link {
                         <p class="hint">
-                            { "The link holds the case itself: position, size, readings, levels and targets; \
-                               no record over time and nothing that names the patient. Plumbline sends it \
-                               nowhere: you choose who gets it." }
+                            { "The link holds the case itself: position, size, readings, levels and targets" }
+                            { match carries {
+                                Some(Carries::Record) => ", and the record over time",
+                                _ => "",
+                            } }
+                            { "; nothing that names the patient. Plumbline sends it nowhere: you choose who gets it." }
                         </p>
-                        if s.is_stale() {
+                        if let Some(Carries::TooLong(n)) = carries {
+                            <div class="msg msg-warning share-record">
+                                <p>{ format!("The record over time is NOT in this link: with it the link would be {n} characters, \
+                                    over the {} a link can carry. The receiver sees the check now, not the time outside targets. \
+                                    Send the record as a file:", share::MAX_FRAGMENT_CHARS) }</p>
+                                <button type="button" onclick={onfile}>{ "Download case with record (JSON)" }</button>
+                            </div>
+                        }
+                        if props.stale {
                             <p class="msg msg-warning">
                                 { "The link carries the last good check: the boxes marked in red are not in it." }
                             </p>

@@ -1,19 +1,27 @@
 //! The targets: the defaults with their guideline sources until the unit's
 //! own are set; add, change or remove any.
 
+use std::rc::Rc;
+
 use plumbline_core::organ::{Metric, Organ};
 use web_sys::HtmlSelectElement;
 use yew::prelude::*;
 
 use crate::components::target_row::TargetRow;
-use crate::form::Edit;
-use crate::state::{Action, Handle};
+use crate::form::{Edit, TargetForm};
+use crate::notes::Notes;
 
 /// Props of [`TargetsPanel`].
 #[derive(Properties, PartialEq)]
 pub struct TargetsPanelProps {
-    /// The state.
-    pub state: Handle,
+    /// The targets' boxes.
+    pub targets: Vec<TargetForm>,
+    /// Whether they are the case's own rather than the defaults.
+    pub custom: bool,
+    /// The messages of the check.
+    pub notes: Rc<Notes>,
+    /// Where changes go.
+    pub onedit: Callback<Edit>,
 }
 
 /// Every organ's metrics as (organ, metric) pairs, for the add picker.
@@ -27,7 +35,6 @@ fn pairs() -> Vec<(Organ, Metric)> {
 /// The targets.
 #[component]
 pub fn TargetsPanel(props: &TargetsPanelProps) -> Html {
-    let s = &props.state;
     let chosen = use_state(|| 0usize);
     let onchoose = {
         let chosen = chosen.clone();
@@ -38,35 +45,28 @@ pub fn TargetsPanel(props: &TargetsPanelProps) -> Html {
             }
         })
     };
-    let onadd = {
-        let d = s.dispatcher();
-        let pick = pairs().get(*chosen).copied();
-        Callback::from(move |_: MouseEvent| {
-            if let Some((organ, metric)) = pick {
-                d.dispatch(Action::Edit(Edit::AddTarget(organ, metric)));
-            }
-        })
-    };
-    let ondefaults = {
-        let d = s.dispatcher();
-        Callback::from(move |_: MouseEvent| d.dispatch(Action::Edit(Edit::DefaultTargets)))
-    };
+    let pick = pairs().get(*chosen).copied();
+    let onadd = crate::components::picked(&props.onedit, move |_: MouseEvent| {
+        pick.map(|(o, m)| Edit::AddTarget(o, m))
+    });
+    let ondefaults = props.onedit.reform(|_: MouseEvent| Edit::DefaultTargets);
     html! {
         <section class="panel" aria-labelledby="h-targets">
             <h2 id="h-targets">{ "Targets" }</h2>
             <p class="hint">
-                if s.form.custom_targets {
+                if props.custom {
                     { "This case's own targets. " }
                 } else {
                     { "Default targets from published guidance: starting points only. " }
                 }
                 { "Targets are patient-specific; the unit's protocol comes first." }
             </p>
-            <details class="more" open={s.form.custom_targets}>
-                <summary>{ format!("Change, add or remove targets ({})", s.form.targets.len()) }</summary>
+            <details class="more" open={props.custom}>
+                <summary>{ format!("Change, add or remove targets ({})", props.targets.len()) }</summary>
             <ul class="targets">
-                { for s.form.targets.iter().enumerate().map(|(i, t)| html! {
-                    <TargetRow index={i} target={t.clone()} state={s.clone()} />
+                { for props.targets.iter().enumerate().map(|(i, t)| html! {
+                    <TargetRow index={i} target={t.clone()} notes={props.notes.clone()}
+                        onedit={props.onedit.clone()} />
                 }) }
             </ul>
             <div class="adder">
@@ -81,7 +81,7 @@ pub fn TargetsPanel(props: &TargetsPanelProps) -> Html {
                     </select>
                 </div>
                 <button type="button" class="add" onclick={onadd}>{ "Add target" }</button>
-                if s.form.custom_targets {
+                if props.custom {
                     <button type="button" class="add" onclick={ondefaults}>{ "Restore default targets" }</button>
                 }
             </div>

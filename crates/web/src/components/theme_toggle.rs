@@ -26,7 +26,7 @@ pub fn ThemeToggle(props: &ThemeToggleProps) -> Html {
                 <circle cx="12" cy="12" r="8" class="theme-ring" />
                 <path d="M12 4 A8 8 0 0 1 12 20 Z" class="theme-half" />
             </svg>
-            <span>{ format!("Theme: {}", theme.label()) }</span>
+            <span class="theme-word">{ format!("Theme: {}", theme.label()) }</span>
         </button>
     }
 }

@@ -7,7 +7,7 @@ use yew::prelude::*;
 use crate::components::field_messages::FieldMessages;
 use crate::form::{Edit, Slot};
 use crate::show::dom_id;
-use crate::state::{Action, Dispatch, Message};
+use crate::state::Message;
 
 /// Props of [`UnitInput`].
 #[derive(Properties, PartialEq)]
@@ -31,22 +31,28 @@ pub struct UnitInputProps {
     /// The core's messages about it.
     pub messages: Vec<Message>,
     /// Where changes go.
-    pub dispatch: Dispatch,
+    pub onedit: Callback<Edit>,
+    /// What an empty box means.
+    #[prop_or_default]
+    pub placeholder: Option<AttrValue>,
+    /// The element id, when the box is shown twice (the quick path's copy);
+    /// else one made from the path.
+    #[prop_or_default]
+    pub id: Option<AttrValue>,
 }
 
 /// A number box with its unit switch.
 #[component]
 pub fn UnitInput(props: &UnitInputProps) -> Html {
-    let id = dom_id(&props.path);
+    let id = props
+        .id
+        .as_ref()
+        .map_or_else(|| dom_id(&props.path), |id| id.to_string());
     let msg_id = format!("{id}-msg");
     let slot = props.slot;
-    let oninput = {
-        let d = props.dispatch.clone();
-        Callback::from(move |e: InputEvent| {
-            let text = e.target_unchecked_into::<HtmlInputElement>().value();
-            d.dispatch(Action::Edit(Edit::Text(slot, text)));
-        })
-    };
+    let oninput = props.onedit.reform(move |e: InputEvent| {
+        Edit::Text(slot, e.target_unchecked_into::<HtmlInputElement>().value())
+    });
     let onchange = props
         .on_unit
         .reform(|e: Event| e.target_unchecked_into::<HtmlSelectElement>().value());
@@ -60,7 +66,7 @@ pub fn UnitInput(props: &UnitInputProps) -> Html {
             <div class="entry">
                 <input id={id.clone()} type="text" inputmode={props.inputmode} autocomplete="off"
                     spellcheck="false"
-                    value={props.text.clone()} {oninput}
+                    value={props.text.clone()} {oninput} placeholder={props.placeholder.clone()}
                     aria-invalid={if invalid { "true" } else { "false" }}
                     aria-describedby={(!props.messages.is_empty()).then(|| msg_id.clone())} />
                 <select id={format!("{id}-unit")} class="unit"

@@ -184,6 +184,8 @@ pub enum Edit {
     /// Every value still as the invented demo case had it cleared, the
     /// clinician's own entries kept.
     ClearDemo,
+    /// An organ of concern added, or taken off when it was one.
+    Concern(Organ),
 }
 
 /// The whole form. It is saved on the device as the boxes hold it
@@ -211,6 +213,10 @@ pub struct Form {
     /// The patient's baseline blood pressure.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub baseline: Option<BaselineForm>,
+    /// The organs of concern, which the core's summary judges (every organ
+    /// with a result when none is chosen).
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub concern: Vec<Organ>,
     /// Whether the boxes began as the invented demo case: what is still as
     /// the demo had it is invented (`demo`).
     #[serde(default, skip_serializing_if = "std::ops::Not::not")]
@@ -261,6 +267,7 @@ impl Form {
             targets,
             custom_targets,
             baseline: case.baseline.as_ref().map(BaselineForm::from_spec),
+            concern: case.concern.clone(),
             demo: false,
             revision: REVISION,
         }
@@ -335,6 +342,7 @@ impl Form {
             .collect();
         case.targets = self.custom_targets.then_some(targets);
         case.baseline = self.baseline.as_ref().and_then(|b| b.spec(&mut errors));
+        case.concern = self.concern.clone();
         errors.into_result(case)
     }
 
@@ -605,6 +613,15 @@ impl Form {
                 }
             }
             Edit::ClearDemo => self.clear_demo(),
+            Edit::Concern(organ) => {
+                if self.concern.contains(&organ) {
+                    self.concern.retain(|o| *o != organ);
+                } else {
+                    self.concern.push(organ);
+                    self.concern
+                        .sort_by_key(|o| Organ::ALL.iter().position(|a| a == o));
+                }
+            }
         }
     }
 }
@@ -766,6 +783,25 @@ mod tests {
             old.with_base(demo_case.clone()).to_case().unwrap(),
             demo_case
         );
+    }
+
+    #[test]
+    fn organs_of_concern_toggle_and_reach_the_case_in_order() {
+        let mut form = blank();
+        form.apply(Edit::Concern(Organ::Kidney));
+        form.apply(Edit::Concern(Organ::Brain));
+        assert_eq!(form.concern, vec![Organ::Brain, Organ::Kidney]);
+        form.apply(Edit::Concern(Organ::Kidney));
+        form.apply(Edit::Text(Slot::Height, "170".into()));
+        form.apply(Edit::Text(
+            Slot::Source(0, SourcePart::BloodPressure),
+            "120/70".into(),
+        ));
+        let case = form.to_case().unwrap();
+        assert_eq!(case.concern, vec![Organ::Brain]);
+        let report = plumbline_core::check::check_case(&case).unwrap();
+        let judged: Vec<Organ> = report.summary.organs.iter().map(|o| o.organ).collect();
+        assert_eq!(judged, vec![Organ::Brain]);
     }
 
     #[test]

@@ -5,7 +5,7 @@
 //! without knowing any posture's angles.
 
 use plumbline_core::error::{Error, ErrorKind, Errors};
-use plumbline_core::geometry::{Angles, ArmPlacement, PositionSpec, Posture};
+use plumbline_core::geometry::{Angles, ArmPlacement, Lie, PositionSpec, Posture};
 
 use serde::{Deserialize, Serialize};
 
@@ -262,6 +262,17 @@ impl PositionForm {
     /// The angle box, for typing into.
     pub fn angle_mut(&mut self, key: AngleKey) -> Option<&mut String> {
         self.angles.get_mut(Self::slot(key))
+    }
+
+    /// The angle the quick path shows with the posture: the table's tilt for
+    /// a tilted table, the backrest for other positions on the back, none
+    /// for the others (their angles are all in the detail).
+    pub fn main_angle(&self) -> Option<AngleKey> {
+        match self.posture? {
+            Posture::Trendelenburg | Posture::ReverseTrendelenburg => Some(AngleKey::Tilt),
+            p if p.lie() == Lie::FaceUp => Some(AngleKey::Backrest),
+            _ => None,
+        }
     }
 
     /// The posture's preset angle, from the core.

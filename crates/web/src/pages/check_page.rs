@@ -1,10 +1,21 @@
-//! The one screen that answers the question: the patient now on one side,
-//! the pressures at the organs' own height on the other.
+//! The one screen that answers the question. The answer is pinned (a bar at
+//! the top of a phone, a column beside the inputs on a tablet); under it
+//! the quick path for the usual jobs (posture, body height, one blood
+//! pressure with its site, another pressure, the organs of concern) beside
+//! the patient's picture, everything else folded one tap away, then each
+//! organ in detail and the record over time.
+//!
+//! The page is the only component that holds the state: it makes the notes
+//! and the callbacks, and every part below receives values.
 
+use plumbline_core::error::ErrorKind;
+use plumbline_core::record::TargetExposure;
 use yew::prelude::*;
 
+use crate::components::baseline_panel::BaselinePanel;
 use crate::components::case_json::CaseJson;
 use crate::components::caution::Caution;
+use crate::components::concern_picker::ConcernPicker;
 use crate::components::demo_notice::DemoNotice;
 use crate::components::figure_view::FigureView;
 use crate::components::heights_table::HeightsTable;
@@ -13,6 +24,8 @@ use crate::components::organ_card::OrganCard;
 use crate::components::patient_panel::PatientPanel;
 use crate::components::position_panel::PositionPanel;
 use crate::components::problems::Problems;
+use crate::components::quick_position::QuickPosition;
+use crate::components::quick_pressures::QuickPressures;
 use crate::components::readings_panel::ReadingsPanel;
 use crate::components::readings_summary::ReadingsSummary;
 use crate::components::record_panel::RecordPanel;
@@ -24,7 +37,10 @@ use crate::components::targets_panel::TargetsPanel;
 use crate::components::theme_toggle::ThemeToggle;
 use crate::components::verdicts::Verdicts;
 use crate::components::warnings_panel::WarningsPanel;
+use crate::form::Edit;
+use crate::notes::Notes;
 use crate::session::SessionAction;
+use crate::show::path_words;
 use crate::state::{Action, Handle};
 
 /// Props of [`CheckPage`].
@@ -34,11 +50,26 @@ pub struct CheckPageProps {
     pub state: Handle,
 }
 
+/// A folded section of the inputs, one tap away.
+fn fold(title: String, open: bool, body: Html) -> Html {
+    html! {
+        <details class="more fold" {open}>
+            <summary>{ title }</summary>
+            { body }
+        </details>
+    }
+}
+
 /// The check screen.
 #[component]
 pub fn CheckPage(props: &CheckPageProps) -> Html {
     let s = &props.state;
     let stale = s.is_stale();
+    let notes = Notes::of(s);
+    let onedit = {
+        let d = s.dispatcher();
+        Callback::from(move |e: Edit| d.dispatch(Action::Edit(e)))
+    };
     let onprint = Callback::from(|_: MouseEvent| {
         if let Some(w) = web_sys::window() {
             // A refused print dialog leaves the screen as it is.
@@ -63,10 +94,50 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
         let d = s.dispatcher();
         Callback::from(move |_: MouseEvent| d.dispatch(Action::Session(SessionAction::NewCheck)))
     };
+    let form = &s.form;
     let checked = s.checked.clone();
+    let invented = form.invented();
+    // A fold opens by itself for a real problem inside, never for what is
+    // merely still to enter (a new check opens with every fold closed).
+    let has = |prefix: &str| {
+        s.errors
+            .iter()
+            .any(|e| e.field.starts_with(prefix) && !matches!(e.kind, ErrorKind::Missing { .. }))
+    };
+    // What is still to enter, said in the answer's place until it can be given.
+    let needed: Vec<String> = s
+        .errors
+        .iter()
+        .filter(|e| matches!(e.kind, ErrorKind::Missing { .. }))
+        .map(|e| match path_words(&e.field) {
+            w if w.is_empty() => e.kind.to_string(),
+            w => format!("{w}: {}", e.kind),
+        })
+        .collect();
+    // The record's part of the answer: the organs of concern's targets.
+    let record: Option<Vec<TargetExposure>> = s.record.analysis.as_ref().map(|a| {
+        a.exposure
+            .targets
+            .iter()
+            .filter(|t| form.concern.is_empty() || form.concern.contains(&t.organ))
+            .cloned()
+            .collect()
+    });
+    let sources: Vec<AttrValue> = form
+        .sources
+        .iter()
+        .map(|src| AttrValue::from(src.id.trim().to_owned()))
+        .collect();
+    let rows = checked
+        .as_ref()
+        .filter(|_| !stale)
+        .map(|c| c.report.arterial.clone())
+        .unwrap_or_default();
+    let readings: Vec<_> = form.readings.iter().map(|(q, r)| (*q, r.clone())).collect();
+    let onclear = onedit.reform(|_: MouseEvent| Edit::ClearDemo);
     html! {
         <>
-            <a class="skip" href="#h-verdicts">{ "Skip to results" }</a>
+            <a class="skip" href="#h-verdicts">{ "Skip to the answer" }</a>
             <header class="top">
                 <div class="brand">
                     <svg class="logo" viewBox="0 0 24 24" aria-hidden="true" focusable="false">
@@ -78,7 +149,8 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                 </div>
                 <div class="tools">
                     <button type="button" class="tool" onclick={onnew}>{ "New check" }</button>
-                    <ShareDialog state={s.clone()} />
+                    <ShareDialog checked={checked.clone()} record={s.record.clone()} stale={stale} />
+                    <a class="tool" href="#h-record">{ "Record" }</a>
                     <button type="button" class="tool" onclick={ondemo} aria-label="Reload the demo case">{ "Demo case" }</button>
                     <button type="button" class="tool" onclick={onprint} aria-label="Print a one-page handover">{ "Print" }</button>
                     <ThemeToggle state={s.clone()} />
@@ -86,57 +158,93 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
             </header>
             <SessionNotices state={s.clone()} />
             <p class="sr-only" aria-live="polite">{ s.announcement() }</p>
-            <main class="layout">
-                <div class="col col-inputs">
-                    <section class="pane pane-position" aria-labelledby="h-patient">
-                        <h2 id="h-patient">{ "The patient now" }</h2>
-                        <PatientPanel state={s.clone()} />
-                        <PositionPanel state={s.clone()} />
+            <div class="screen">
+                <div class="col-answer">
+                    <div class={classes!("pane", "answer-pin", stale.then_some("stale-pin"))}>
                         if let Some(c) = &checked {
-                            <FigureView checked={c.clone()} stale={stale} />
+                            <Verdicts summary={c.report.summary.clone()} stale={stale}
+                                invented={!invented.is_empty() || s.shows_demo()} record={record}
+                                needed={needed.clone()} />
+                        } else {
+                            <section class="verdicts pending" aria-labelledby="h-verdicts">
+                                <h2 id="h-verdicts">{ "At the organs' own height" }</h2>
+                                <p class="headline">{ "No answer yet. To check, enter:" }</p>
+                                <ul class="needed-list">
+                                    { for needed.iter().map(|n| html! { <li>{ n.clone() }</li> }) }
+                                </ul>
+                            </section>
                         }
-                    </section>
-                    <section class="pane pane-readings" aria-labelledby="h-pressures">
-                        <h2 id="h-pressures">{ "Pressures as read" }</h2>
-                        <SourcesPanel state={s.clone()} />
-                        <ReadingsPanel state={s.clone()} />
-                    </section>
-                    <div class="pane pane-targets">
-                        <TargetsPanel state={s.clone()} />
                     </div>
-                </div>
-                <div class="col col-results">
-                    <Problems errors={s.errors.clone()} has_results={checked.is_some()} />
-                    if s.shows_demo() {
-                        <DemoNotice />
-                    }
                     if let Some(c) = &checked {
-                        <div class={classes!("pane", "pane-verdicts", stale.then_some("stale"))}>
-                            <Verdicts summary={c.report.summary.clone()} stale={stale} />
-                        </div>
-                        <section class={classes!("pane", "pane-results", stale.then_some("stale"))}
-                            aria-labelledby="h-organs">
-                            <h2 id="h-organs">{ "Organ by organ" }</h2>
-                            if let Some(p) = &c.report.position {
-                                <p class="position-words">{ format!("Position: {p}") }</p>
-                            }
-                            <ReadingsSummary checked={c.clone()} />
-                            { for c.report.organs.iter().map(|o| html! { <OrganCard organ={o.clone()} /> }) }
-                            <NotCheckedList organs={c.report.not_checked.clone()} />
-                            <WarningsPanel cross_checks={c.report.cross_checks.clone()}
-                                warnings={c.report.warnings.clone()} />
-                            <HeightsTable rows={c.report.heights.clone()} />
-                        </section>
-                        <div class={classes!("pane", "pane-sweep", stale.then_some("stale"))}>
-                            <SweepChart sweeps={c.report.sweeps.clone()} now_deg={c.backrest_deg()} />
-                        </div>
-                        <div class="pane pane-json">
-                            <CaseJson json={c.case_json.clone()} stale={stale} />
+                        <div class="results">
+                            <section class={classes!("pane", "pane-results", stale.then_some("stale"))}
+                                aria-labelledby="h-organs">
+                                <h2 id="h-organs">{ "Organ by organ" }</h2>
+                                if let Some(p) = &c.report.position {
+                                    <p class="position-words">{ format!("Position: {p}") }</p>
+                                }
+                                <ReadingsSummary checked={c.clone()} />
+                                { for c.report.organs.iter().map(|o| html! { <OrganCard organ={o.clone()} /> }) }
+                                <NotCheckedList organs={c.report.not_checked.clone()} />
+                                <WarningsPanel cross_checks={c.report.cross_checks.clone()}
+                                    warnings={c.report.warnings.clone()} />
+                                <HeightsTable rows={c.report.heights.clone()} />
+                            </section>
+                            <div class={classes!("pane", "pane-sweep", stale.then_some("stale"))}>
+                                <SweepChart sweeps={c.report.sweeps.clone()} now_deg={c.backrest_deg()} />
+                            </div>
+                            <div class="pane pane-json">
+                                <CaseJson json={c.case_json.clone()} stale={stale} />
+                            </div>
                         </div>
                     }
                 </div>
-                <RecordPanel state={s.clone()} />
-            </main>
+                <main class="col-inputs">
+                    if s.shows_demo() || !invented.is_empty() {
+                        <DemoNotice invented={invented.clone()} untouched={s.shows_demo()} onclear={onclear} />
+                    }
+                    <Problems errors={s.errors.clone()} has_results={checked.is_some()} />
+                    <section class="pane quick" aria-labelledby="h-patient">
+                        <h2 id="h-patient">{ "The patient now" }</h2>
+                        <div class="quick-top">
+                            <QuickPosition position={form.position.clone()} height={form.height.clone()}
+                                notes={notes.clone()} onedit={onedit.clone()} />
+                            <div class="quick-figure">
+                                if let Some(c) = &checked {
+                                    <FigureView checked={c.clone()} stale={stale} />
+                                } else {
+                                    <p class="hint">{ "The patient's picture shows once the position and body height are in." }</p>
+                                }
+                            </div>
+                        </div>
+                        <QuickPressures source={form.sources.first().cloned()} readings={readings}
+                            notes={notes.clone()} onedit={onedit.clone()} />
+                        <ConcernPicker concern={form.concern.clone()} onedit={onedit.clone()} />
+                    </section>
+                    <section class="pane folds" aria-label="More detail">
+                        { fold("Position in detail: other angles, arms".to_owned(), has("position."),
+                            html! { <PositionPanel position={form.position.clone()} notes={notes.clone()} onedit={onedit.clone()} /> }) }
+                        { fold(format!("Arterial sources ({})", form.sources.len()), has("arterial"),
+                            html! { <SourcesPanel sources={form.sources.clone()} rows={rows}
+                                notes={notes.clone()} onedit={onedit.clone()} /> }) }
+                        { fold(format!("Other pressures and assumed values ({})", form.readings.len() + form.assumed.len()),
+                            has("readings") || has("assume"),
+                            html! { <ReadingsPanel readings={form.readings.clone()} assumed={form.assumed.clone()}
+                                notes={notes.clone()} onedit={onedit.clone()} /> }) }
+                        { fold(if form.baseline.is_some() { "Baseline blood pressure".to_owned() } else { "Baseline blood pressure (none)".to_owned() },
+                            has("baseline"),
+                            html! { <BaselinePanel baseline={form.baseline.clone()} notes={notes.clone()} onedit={onedit.clone()} /> }) }
+                        { fold(format!("Targets ({}{})", form.targets.len(), if form.custom_targets { ", this case's own" } else { ", defaults" }),
+                            has("targets"),
+                            html! { <TargetsPanel targets={form.targets.clone()} custom={form.custom_targets}
+                                notes={notes.clone()} onedit={onedit.clone()} /> }) }
+                        { fold("Haematocrit".to_owned(), has("patient.haematocrit"),
+                            html! { <PatientPanel haematocrit={form.haematocrit.clone()} notes={notes.clone()} onedit={onedit.clone()} /> }) }
+                    </section>
+                </main>
+                <RecordPanel record={s.record.clone()} checked={checked.clone()} stale={stale}
+                    sources={sources} dispatch={s.dispatcher()} />
+            </div>
             <Caution />
         </>
     }

@@ -11,8 +11,179 @@
 
 use plumbline_core::case::{Case, ChannelSpec, PositionChangeSpec, TimelineSpec};
 use plumbline_core::geometry::PositionSpec;
-use plumbline_core::record::{case_readings, elapsed_words};
-use plumbline_core::units::PressureEntry;
+use plumbline_core::reading::Component;
+use plumbline_core::record::{arterial_channel, case_readings, elapsed_words};
+use plumbline_core::units::{PressureEntry, PressureUnit};
+use plumbline_core::usual::BloodPressure;
+
+use crate::fields::number_text;
+
+/// The three components of a blood pressure, in the order it is written.
+const PARTS: [Component; 3] = [Component::Systolic, Component::Diastolic, Component::Mean];
+
+/// A blood pressure as samples of a source's channels: channel name and
+/// value, each in the channel's own unit when the record has it.
+pub fn bp_readings(
+    spec: &TimelineSpec,
+    id: &str,
+    bp: &BloodPressure,
+) -> Vec<(String, PressureEntry)> {
+    let values = [Some(bp.systolic), Some(bp.diastolic), bp.mean];
+    PARTS
+        .iter()
+        .zip(values)
+        .filter_map(|(c, v)| {
+            let name = arterial_channel(id, *c);
+            let v = v?;
+            let unit = spec
+                .channels
+                .iter()
+                .find(|ch| ch.channel == name)
+                .map_or(v.unit, |ch| ch.unit);
+            Some((name, in_unit(v, unit)))
+        })
+        .collect()
+}
+
+/// `v` in `unit`, untouched when it is already in it (a conversion through
+/// pascals would write 63 as 62.99999999999999).
+fn in_unit(v: PressureEntry, unit: PressureUnit) -> PressureEntry {
+    if v.unit == unit {
+        v
+    } else {
+        v.convert_to(unit)
+    }
+}
+
+/// Whether a blood pressure fits the source's readings already in the
+/// record at other times than `t_s`: all with the device's mean, or all
+/// without (the core then estimates every mean alike). A record mixing the
+/// two would follow the mean only where it was typed.
+///
+/// # Errors
+/// What to type instead, in words.
+pub fn fits(spec: &TimelineSpec, id: &str, t_s: f64, bp: &BloodPressure) -> Result<(), String> {
+    let times = |c: Component| {
+        let name = arterial_channel(id, c);
+        spec.channels
+            .iter()
+            .find(|ch| ch.channel == name)
+            .map_or(0, |ch| ch.t_s.iter().filter(|t| **t != t_s).count())
+    };
+    let (others, means) = (times(Component::Systolic), times(Component::Mean));
+    match (others > 0, means > 0, bp.mean.is_some()) {
+        (true, true, false) => Err(format!(
+            "the record keeps {id}'s own mean with each reading: type it as systolic/diastolic \
+             (mean), e.g. 100/60 (74)"
+        )),
+        (true, false, true) => Err(format!(
+            "the record has {id}'s readings without the device's mean, and estimates each mean \
+             from systolic and diastolic: type systolic/diastolic only, e.g. 100/60"
+        )),
+        _ => Ok(()),
+    }
+}
+
+/// One time of a source's readings in the record, as the list under the
+/// chart shows it.
+#[derive(Clone, Debug, PartialEq)]
+pub struct ReadingRow {
+    /// Seconds from the start.
+    pub t_s: f64,
+    /// The reading as one text: `104/58 (74)`, or the parts there are.
+    pub text: String,
+}
+
+/// The times at which `id`'s channels have samples, each with its values
+/// written as one text (numbers as recorded, never recomputed).
+pub fn reading_rows(spec: &TimelineSpec, id: &str) -> Vec<ReadingRow> {
+    let channels: Vec<Option<&ChannelSpec>> = PARTS
+        .iter()
+        .map(|c| {
+            let name = arterial_channel(id, *c);
+            spec.channels.iter().find(|ch| ch.channel == name)
+        })
+        .collect();
+    let mut times: Vec<f64> = channels
+        .iter()
+        .flatten()
+        .flat_map(|c| c.t_s.iter().copied())
+        .collect();
+    times.sort_by(f64::total_cmp);
+    times.dedup();
+    let at = |c: Option<&ChannelSpec>, t: f64| {
+        let c = c?;
+        let k = c.t_s.iter().position(|x| *x == t)?;
+        let v = number_text(*c.values.get(k)?);
+        Some(match c.unit {
+            PressureUnit::MmHg => v,
+            u => format!("{v} {}", u.symbol()),
+        })
+    };
+    times
+        .into_iter()
+        .map(|t| {
+            let get = |i: usize| at(channels.get(i).copied().flatten(), t);
+            let text = match (get(0), get(1), get(2)) {
+                (Some(s), Some(d), Some(m)) => format!("{s}/{d} ({m})"),
+                (Some(s), Some(d), None) => format!("{s}/{d}"),
+                (s, d, m) => [("sys", s), ("dia", d), ("mean", m)]
+                    .into_iter()
+                    .filter_map(|(k, v)| Some(format!("{k} {}", v?)))
+                    .collect::<Vec<_>>()
+                    .join(", "),
+            };
+            ReadingRow { t_s: t, text }
+        })
+        .collect()
+}
+
+/// Replaces `id`'s readings at `t_s` with `bp` (a part it lacks is taken
+/// out), or removes them all for `None`; a channel left empty goes.
+pub fn set_reading(spec: &mut TimelineSpec, id: &str, t_s: f64, bp: Option<&BloodPressure>) {
+    let values = bp.map_or([None; 3], |b| [Some(b.systolic), Some(b.diastolic), b.mean]);
+    for (c, v) in PARTS.iter().zip(values) {
+        let name = arterial_channel(id, *c);
+        let k = spec.channels.iter().position(|ch| ch.channel == name);
+        let k = match (k, v) {
+            (Some(k), _) => k,
+            (None, Some(v)) => {
+                spec.channels.push(ChannelSpec {
+                    channel: name,
+                    unit: v.unit,
+                    t_s: Vec::new(),
+                    values: Vec::new(),
+                });
+                spec.channels.len() - 1
+            }
+            (None, None) => continue,
+        };
+        if let Some(ch) = spec.channels.get_mut(k) {
+            let at = ch.t_s.partition_point(|t| *t < t_s);
+            let here = ch.t_s.get(at) == Some(&t_s);
+            match (v, here) {
+                (Some(v), true) => {
+                    if let Some(x) = ch.values.get_mut(at) {
+                        *x = in_unit(v, ch.unit).amount;
+                    }
+                }
+                (Some(v), false) => {
+                    ch.t_s.insert(at, t_s);
+                    ch.values
+                        .insert(at.min(ch.values.len()), in_unit(v, ch.unit).amount);
+                }
+                (None, true) => {
+                    ch.t_s.remove(at);
+                    if at < ch.values.len() {
+                        ch.values.remove(at);
+                    }
+                }
+                (None, false) => {}
+            }
+        }
+    }
+    spec.channels.retain(|ch| !ch.t_s.is_empty());
+}
 
 /// The readings of `case` one sample adds to `spec`: channel name and value.
 pub fn readings(case: &Case, spec: &TimelineSpec) -> Vec<(String, PressureEntry)> {
@@ -186,6 +357,48 @@ mod tests {
         assert!(add_sample(&mut spec, 900.0, &[])
             .unwrap_err()
             .contains("nothing to add"));
+    }
+
+    #[test]
+    fn a_sources_readings_list_edit_and_go_by_time() {
+        use plumbline_core::usual::read_blood_pressure;
+        let bp = |t: &str| read_blood_pressure(t, PressureUnit::MmHg).unwrap();
+        let mut spec = TimelineSpec::default();
+        let first = bp_readings(&spec, "L arm cuff", &bp("100/60"));
+        add_sample(&mut spec, 0.0, &first).unwrap();
+        // A record of readings without the mean takes no mean later, and
+        // the other way round, except in place of its only reading.
+        let with_mean = bp("95/55 (68)");
+        let refused = fits(&spec, "L arm cuff", 600.0, &with_mean).unwrap_err();
+        assert!(refused.contains("estimates"), "{refused}");
+        assert!(fits(&spec, "L arm cuff", 0.0, &with_mean).is_ok());
+        assert!(fits(&spec, "L arm cuff", 600.0, &bp("95/55")).is_ok());
+        assert!(fits(&spec, "other", 600.0, &with_mean).is_ok());
+        let second = bp_readings(&spec, "L arm cuff", &bp("90/50 (63)"));
+        add_sample(&mut spec, 300.0, &second).unwrap();
+        let rows = reading_rows(&spec, "L arm cuff");
+        assert_eq!(
+            rows,
+            vec![
+                ReadingRow {
+                    t_s: 0.0,
+                    text: "100/60".into()
+                },
+                ReadingRow {
+                    t_s: 300.0,
+                    text: "90/50 (63)".into()
+                },
+            ]
+        );
+        set_reading(&mut spec, "L arm cuff", 0.0, Some(&bp("110/70 (83)")));
+        assert_eq!(reading_rows(&spec, "L arm cuff")[0].text, "110/70 (83)");
+        set_reading(&mut spec, "L arm cuff", 300.0, Some(&bp("95/55")));
+        assert_eq!(reading_rows(&spec, "L arm cuff")[1].text, "95/55");
+        set_reading(&mut spec, "L arm cuff", 0.0, None);
+        let rows = reading_rows(&spec, "L arm cuff");
+        assert_eq!(rows.len(), 1);
+        assert_eq!(spec.channels.len(), 2, "the mean channel, now empty, goes");
+        assert!(reading_rows(&spec, "other").is_empty());
     }
 
     #[test]

@@ -16,6 +16,7 @@
 pub mod entry;
 pub mod strip;
 pub mod trend;
+pub mod ward;
 pub mod when;
 
 use std::rc::Rc;
@@ -28,6 +29,8 @@ use plumbline_core::record::{
     self, csv, elapsed_words, Exposure, Sampling, TargetExposure, Timeline,
 };
 use plumbline_core::scene::Scene;
+use plumbline_core::units::PressureUnit;
+use plumbline_core::usual::read_blood_pressure;
 
 use crate::fields::number_text;
 use crate::form::Form;
@@ -180,6 +183,8 @@ pub struct Record {
     pub file: Option<FileProblems>,
     /// Why the last entry was refused.
     pub entry: Option<String>,
+    /// The ward's entry row: a blood pressure typed with its time.
+    pub ward: Ward,
     /// What the last record action did, in words, for the screen reader.
     pub note: Option<String>,
     /// The last good analysis.
@@ -192,6 +197,19 @@ pub struct Record {
     /// Counts changes awaiting analysis, so a pause after the last one can
     /// start it.
     pub generation: u64,
+}
+
+/// The ward's entry row as typed: which source, when, and the blood
+/// pressure (`100/60` or `100/60 (74)`).
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct Ward {
+    /// The arterial source the readings belong to, by its place.
+    pub source: usize,
+    /// The time: empty for now, a clock time (`08:40`), or minutes after
+    /// the last entry (`+5`).
+    pub time: String,
+    /// The blood pressure as typed.
+    pub bp: String,
 }
 
 /// Every change to the record.
@@ -236,6 +254,29 @@ pub enum RecordAction {
     Analyse,
     /// Close the record: everything in it goes.
     Close,
+    /// The ward row's source.
+    WardSource(usize),
+    /// The ward row's time box.
+    WardTime(String),
+    /// The ward row's blood pressure box.
+    WardBp(String),
+    /// A source's readings at one time replaced by a blood pressure typed
+    /// in the list under the chart.
+    EditReading {
+        /// The source's id.
+        id: String,
+        /// When, seconds from the start.
+        t_s: f64,
+        /// The blood pressure as typed.
+        text: String,
+    },
+    /// A source's readings at one time taken out.
+    RemoveReading {
+        /// The source's id.
+        id: String,
+        /// When, seconds from the start.
+        t_s: f64,
+    },
 }
 
 impl Record {
@@ -361,6 +402,14 @@ impl Record {
     fn analysed(&self, scene: &Scene, timeline: &Timeline) -> Analysis {
         let exposure = record::analyze(scene, timeline, None);
         let changes: Vec<f64> = self.spec.positions.iter().map(|p| p.at_s).collect();
+        let mut readings: Vec<f64> = self
+            .spec
+            .channels
+            .iter()
+            .flat_map(|c| c.t_s.iter().copied())
+            .collect();
+        readings.sort_by(f64::total_cmp);
+        readings.dedup();
         let trends = record::series(scene, timeline)
             .iter()
             .map(|s| {
@@ -375,6 +424,7 @@ impl Record {
                     &drawn,
                     (exposure.from_s, exposure.to_s),
                     &changes,
+                    &readings,
                 ))
             })
             .collect();
@@ -453,8 +503,39 @@ impl Record {
             RecordAction::Close => {
                 *self = Record {
                     when: self.when.clone(),
+                    ward: Ward {
+                        bp: String::new(),
+                        ..self.ward.clone()
+                    },
                     ..Record::default()
                 }
+            }
+            RecordAction::WardSource(i) => self.ward.source = i,
+            RecordAction::WardTime(text) => {
+                self.ward.time = text;
+                self.entry = None;
+            }
+            RecordAction::WardBp(text) => {
+                self.ward.bp = text;
+                self.entry = None;
+            }
+            RecordAction::EditReading { id, t_s, text } => {
+                let read = read_blood_pressure(&text, PressureUnit::MmHg)
+                    .and_then(|bp| entry::fits(&self.spec, &id, t_s, &bp).map(|()| bp));
+                match read {
+                    Ok(bp) => {
+                        entry::set_reading(Rc::make_mut(&mut self.spec), &id, t_s, Some(&bp));
+                        self.entry = None;
+                        self.note = Some(format!("Reading at {} changed.", elapsed_words(t_s)));
+                        self.analyse(case);
+                    }
+                    Err(why) => self.entry = Some(why),
+                }
+            }
+            RecordAction::RemoveReading { id, t_s } => {
+                entry::set_reading(Rc::make_mut(&mut self.spec), &id, t_s, None);
+                self.note = Some(format!("Reading at {} removed.", elapsed_words(t_s)));
+                self.analyse(case);
             }
         }
     }
@@ -543,6 +624,33 @@ impl Record {
         self.analyse(Some(case));
     }
 
+    /// Adds a blood pressure from the ward row at `t_s`; a record it begins
+    /// starts in the position on screen at `clock_start` (seconds after
+    /// midnight).
+    ///
+    /// # Errors
+    /// A source that already has a reading at that time; the record is then
+    /// unchanged.
+    pub(crate) fn add_ward(
+        &mut self,
+        t_s: f64,
+        clock_start: Option<f64>,
+        readings: &[(String, plumbline_core::units::PressureEntry)],
+        case: &Case,
+    ) -> Result<(), String> {
+        let mut spec = (*self.spec).clone();
+        entry::add_sample(&mut spec, t_s, readings)?;
+        self.entry = None;
+        if self.is_empty() {
+            self.start = case.position.clone();
+            spec.clock_start = clock_start.map(clock_words);
+        }
+        self.note = Some(format!("Added a reading at {}.", elapsed_words(t_s)));
+        self.spec = Rc::new(spec);
+        self.analyse(Some(case));
+        Ok(())
+    }
+
     /// A record begun by an entry starts in the position on screen and,
     /// when its first entry was timed by a clock, at that clock time.
     fn begin(&mut self, spec: &mut TimelineSpec, case: &Case, now_s: f64) {
@@ -589,9 +697,21 @@ mod tests {
         let a = r.analysis.as_ref().unwrap();
         let cli = record::exposure_of(&record::import_into(&demo(), RECORD).unwrap()).unwrap();
         assert_eq!(a.exposure, cli.0);
-        assert_eq!(a.trends.len(), 3, "CPP, MAP at brain level, MAP at the heart");
-        assert_eq!(a.trends[1].targets, vec![1, 2], "two targets on MAP at brain level");
-        assert_eq!(a.trends[2].targets, vec![3, 4], "two targets on MAP at the heart");
+        assert_eq!(
+            a.trends.len(),
+            3,
+            "CPP, MAP at brain level, MAP at the heart"
+        );
+        assert_eq!(
+            a.trends[1].targets,
+            vec![1, 2],
+            "two targets on MAP at brain level"
+        );
+        assert_eq!(
+            a.trends[2].targets,
+            vec![3, 4],
+            "two targets on MAP at the heart"
+        );
         assert!(a.channels.iter().any(|c| c.estimated));
         assert_eq!(r.start, demo().position);
         assert_eq!(r.opened.as_deref(), Some("beach-chair-record.csv"));

@@ -1,7 +1,9 @@
 //! A trend chart's layout: one organ-level series from the core, scaled
 //! into SVG units and downsampled per pixel column, with each target's
-//! line and the hatched area outside it, the worst point, and the position
-//! changes. Scaling only: every value drawn is the core's.
+//! line (named with its organ) and the hatched area outside it, a mark at
+//! each reading of a short record (the last one too), the worst point, and
+//! the position changes. Labels sit inside the plot, so no screen width
+//! clips them. Scaling only: every value drawn is the core's.
 //!
 //! The chart's inside is written as SVG markup by [`Trend::svg`]: one
 //! string for the page to insert, rather than hundreds of elements to
@@ -10,7 +12,7 @@
 
 use plumbline_core::record::{elapsed_words, MetricSeries, TargetExposure};
 
-use crate::chart::{nice_step, Mark, Tick};
+use crate::chart::{axis, Mark, Tick};
 use crate::record::strip::{strip, Strip};
 use crate::show::rounded;
 
@@ -18,14 +20,16 @@ use crate::show::rounded;
 pub const WIDTH: f64 = 640.0;
 /// Chart height, SVG units.
 pub const HEIGHT: f64 = 250.0;
-/// The plot area's left edge (room for the y labels).
-pub const LEFT: f64 = 46.0;
-/// Its right edge (room for the target labels).
-pub const RIGHT: f64 = WIDTH - 62.0;
+/// The plot area's left edge.
+pub const LEFT: f64 = 8.0;
+/// Its right edge.
+pub const RIGHT: f64 = WIDTH - 8.0;
 /// Its top edge.
-pub const TOP: f64 = 16.0;
+pub const TOP: f64 = 8.0;
 /// Its bottom edge (room for the time labels).
 pub const BOTTOM: f64 = HEIGHT - 30.0;
+/// The most readings marked one by one: more is a monitor's stream.
+const MARKED: usize = 120;
 
 /// Time steps for the x axis, seconds: the first giving at most six ticks.
 const TIME_STEPS: [f64; 12] = [
@@ -79,6 +83,8 @@ pub struct Trend {
     pub limits: Vec<Limit>,
     /// Position changes: where, and the position's number (the start is 1).
     pub marks: Vec<(f64, usize)>,
+    /// A mark at each reading: the value it brought, SVG units.
+    pub readings: Vec<(f64, f64)>,
     /// The exposure entries drawn, indices into the exposure's targets.
     pub targets: Vec<usize>,
 }
@@ -154,12 +160,9 @@ impl Trend {
             String::with_capacity(4096 + self.curve.iter().map(String::len).sum::<usize>());
         for k in &self.y_ticks {
             out.push_str(&format!(
-                r#"<line x1="{}" x2="{}" y1="{y}" y2="{y}" class="grid"/><text x="{}" y="{}" class="tick tick-y">{}</text>"#,
+                r#"<line x1="{}" x2="{}" y1="{y}" y2="{y}" class="grid"/>"#,
                 n(LEFT),
                 n(RIGHT),
-                n(LEFT - 6.0),
-                n(k.at + 5.0),
-                k.text,
                 y = n(k.at)
             ));
         }
@@ -181,6 +184,13 @@ impl Trend {
         for d in &self.curve {
             out.push_str(&format!(r#"<path d="{d}" class="trend-curve"/>"#));
         }
+        for (x, y) in &self.readings {
+            out.push_str(&format!(
+                r#"<circle cx="{}" cy="{}" r="4.5" class="reading-mark"/>"#,
+                n(*x),
+                n(*y)
+            ));
+        }
         for l in &self.limits {
             out.push_str(&format!(
                 r#"<line x1="{}" x2="{}" y1="{y}" y2="{y}" class="series {}" stroke-dasharray="{}"/><text x="{}" y="{}" class="limit-label">{}</text>"#,
@@ -188,8 +198,8 @@ impl Trend {
                 n(RIGHT),
                 l.mark.class(),
                 l.mark.dash(),
-                n(RIGHT + 4.0),
-                n(l.y + 5.0),
+                n(RIGHT - 4.0),
+                n(if l.at_least { l.y + 18.0 } else { l.y - 6.0 }),
                 l.text,
                 y = n(l.y)
             ));
@@ -207,24 +217,47 @@ impl Trend {
                 n(TOP),
                 n(BOTTOM),
                 n(x + 4.0),
-                n(TOP + 2.0),
+                n(TOP + 16.0),
                 x = n(*x)
+            ));
+        }
+        // The pressure labels last, inside the plot over a halo, so the
+        // curve never hides them and no width clips them.
+        for k in &self.y_ticks {
+            out.push_str(&format!(
+                r#"<text x="{}" y="{}" class="tick tick-y">{}</text>"#,
+                n(LEFT + 4.0),
+                n(k.at - 4.0),
+                k.text
             ));
         }
         out
     }
 
     /// Lays out `series` over `window` (seconds from the start), with the
-    /// exposure entries `targets` (index and entry) drawn on it and the
-    /// position changes at `changes` (seconds).
+    /// exposure entries `targets` (index and entry) drawn on it, the
+    /// position changes at `changes` and the readings at `readings`
+    /// (seconds; marked when there are few enough to tell apart).
     pub fn new(
         series: &MetricSeries,
         targets: &[(usize, &TargetExposure)],
         window: (f64, f64),
         changes: &[f64],
+        readings: &[f64],
     ) -> Trend {
         let (from, to) = (window.0, window.1.max(window.0 + 60.0));
-        let values = series.runs.iter().flat_map(|r| r.mmhg.iter().copied());
+        // The last reading holds no time, but it is drawn: a step at the end.
+        let mut runs = series.runs.clone();
+        if let (Some(end), Some(last)) = (series.end_mmhg, runs.last_mut()) {
+            if last.t_s.last() == Some(&window.1) && last.mmhg.last() != Some(&end) {
+                last.t_s.push(window.1);
+                last.mmhg.push(end);
+            }
+        }
+        let values = runs
+            .iter()
+            .flat_map(|r| r.mmhg.iter().copied())
+            .chain(series.end_mmhg);
         let (lo, hi) = values.fold((f64::INFINITY, f64::NEG_INFINITY), |(lo, hi), v| {
             (lo.min(v), hi.max(v))
         });
@@ -233,9 +266,7 @@ impl Trend {
             if observed { (lo, hi) } else { (0.0, 100.0) },
             |(a, b), t| (a.min(t), b.max(t)),
         );
-        let step = nice_step((v_hi - v_lo).max(10.0), 4.0);
-        let y0 = (v_lo / step).floor() * step;
-        let y1 = ((v_hi / step).ceil() * step).max(y0 + step);
+        let (y0, y1, step) = axis(v_lo, v_hi, 4.0);
         let y_of = |v: f64| BOTTOM - (v - y0) / (y1 - y0) * (BOTTOM - TOP);
         let x_of = |t: f64| LEFT + (t - from) / (to - from) * (RIGHT - LEFT);
 
@@ -263,8 +294,7 @@ impl Trend {
         }
 
         let columns = (RIGHT - LEFT) as usize;
-        let strips: Vec<Strip> = series
-            .runs
+        let strips: Vec<Strip> = runs
             .iter()
             .filter_map(|r| {
                 let points: Vec<(f64, f64)> = r
@@ -289,7 +319,12 @@ impl Trend {
                 let sign = if t.at_least { '≥' } else { '≤' };
                 Limit {
                     y,
-                    text: format!("{sign} {}", rounded(t.threshold_mmhg)),
+                    text: format!(
+                        "{} {} {sign} {}",
+                        series.organ.label(),
+                        series.label,
+                        rounded(t.threshold_mmhg)
+                    ),
                     at_least: t.at_least,
                     shade: d,
                     mark: Mark::nth(i + 1),
@@ -307,6 +342,21 @@ impl Trend {
             .map(|(k, at)| (x_of(*at), k + 2))
             .collect();
 
+        // Each reading's mark: the value right after it (the last point at
+        // its time), or the value at the end for the last.
+        let marked = readings.len() <= MARKED;
+        let reading_marks = readings
+            .iter()
+            .filter(|_| marked)
+            .filter(|t| (from..=to).contains(*t))
+            .filter_map(|t| {
+                let v = runs.iter().find_map(|r| {
+                    let k = r.t_s.iter().rposition(|x| x == t)?;
+                    r.mmhg.get(k).copied()
+                })?;
+                Some((x_of(*t), y_of(v)))
+            })
+            .collect();
         let title = format!("{} · {}", series.organ.label(), series.label);
         let mut description = format!("{title} over {}", elapsed_words(to - from));
         if observed {
@@ -330,6 +380,7 @@ impl Trend {
             curve,
             limits,
             marks,
+            readings: reading_marks,
             targets: targets.iter().map(|(i, _)| *i).collect(),
         }
     }
@@ -383,13 +434,14 @@ mod tests {
             metric: Metric::Inflow,
             label: "MAP at the heart",
             runs: vec![run(0..14_400), run(15_000..28_800)],
+            end_mmhg: None,
         }
     }
 
     #[test]
     fn a_long_record_draws_in_a_few_hundred_columns() {
         let t = exposure(65.0, true, Some((2827.0, 60.0)));
-        let trend = Trend::new(&long_series(), &[(0, &t)], (0.0, 28_799.0), &[3600.0]);
+        let trend = Trend::new(&long_series(), &[(0, &t)], (0.0, 28_799.0), &[3600.0], &[]);
         assert_eq!(trend.curve.len(), 2, "the gap splits the curve");
         let points: usize = trend.curve.iter().map(|d| d.matches('L').count() + 1).sum();
         let columns = (RIGHT - LEFT) as usize;
@@ -397,7 +449,7 @@ mod tests {
         // Below 65 happens, so the floor is hatched; the worst is in the plot.
         let limit = &trend.limits[0];
         assert!(!limit.shade.is_empty());
-        assert!(limit.at_least && limit.text == "≥ 65");
+        assert!(limit.at_least && limit.text == "Whole body MAP at the heart ≥ 65");
         let (x, y) = limit.worst.unwrap();
         assert!((LEFT..=RIGHT).contains(&x) && (TOP..=BOTTOM).contains(&y));
         assert_eq!(trend.marks.len(), 1);
@@ -410,7 +462,7 @@ mod tests {
     #[test]
     fn scales_cover_the_values_and_the_targets() {
         let t = exposure(90.0, true, None);
-        let trend = Trend::new(&long_series(), &[(3, &t)], (0.0, 28_799.0), &[]);
+        let trend = Trend::new(&long_series(), &[(3, &t)], (0.0, 28_799.0), &[], &[]);
         let top = trend.y_ticks.last().unwrap();
         assert!(top.text.parse::<f64>().unwrap() >= 90.0);
         let bottom = trend.y_ticks.first().unwrap();
@@ -431,12 +483,19 @@ mod tests {
                 t_s: vec![0.0, 600.0, 1200.0],
                 mmhg: vec![10.0, 30.0, 10.0],
             }],
+            end_mmhg: None,
         };
         let ceiling = exposure(22.0, false, Some((600.0, 30.0)));
         let floor = exposure(5.0, true, None);
-        let trend = Trend::new(&series, &[(0, &ceiling), (1, &floor)], (0.0, 1200.0), &[]);
+        let trend = Trend::new(
+            &series,
+            &[(0, &ceiling), (1, &floor)],
+            (0.0, 1200.0),
+            &[],
+            &[],
+        );
         assert!(!trend.limits[0].shade.is_empty());
-        assert!(trend.limits[0].text.starts_with('≤'));
+        assert!(trend.limits[0].text.ends_with("≤ 22"));
         assert!(trend.limits[1].shade.is_empty());
         assert_ne!(trend.limits[0].mark, trend.limits[1].mark);
         assert_eq!(
@@ -452,17 +511,50 @@ mod tests {
     #[test]
     fn the_markup_holds_every_part_once() {
         let t = exposure(65.0, true, Some((2827.0, 60.0)));
-        let trend = Trend::new(&long_series(), &[(0, &t)], (0.0, 28_799.0), &[3600.0]);
+        let trend = Trend::new(&long_series(), &[(0, &t)], (0.0, 28_799.0), &[3600.0], &[]);
         let svg = trend.svg();
         assert_eq!(svg.matches("class=\"trend-curve\"").count(), 2);
         assert_eq!(svg.matches("class=\"shade shade-low\"").count(), 1);
         assert_eq!(svg.matches("class=\"worst\"").count(), 1);
         assert_eq!(svg.matches("class=\"now-label\">2<").count(), 1);
-        assert!(svg.contains(">≥ 65</text>"));
+        assert!(svg.contains(">Whole body MAP at the heart ≥ 65</text>"));
         assert_eq!(
             svg.matches('<').count(),
             svg.matches("/>").count() + svg.matches("</").count() * 2
         );
+    }
+
+    #[test]
+    fn every_reading_of_a_ward_record_is_marked_the_last_one_too() {
+        // Held cuff readings at 0, 5 and 10 min: the last holds no time, so
+        // the core gives it as the value at the end.
+        let series = MetricSeries {
+            organ: Organ::WholeBody,
+            metric: Metric::Inflow,
+            label: "MAP at the heart",
+            runs: vec![Run {
+                t_s: vec![0.0, 300.0, 300.0, 600.0],
+                mmhg: vec![80.0, 80.0, 60.0, 60.0],
+            }],
+            end_mmhg: Some(90.0),
+        };
+        let t = exposure(65.0, true, Some((300.0, 60.0)));
+        let trend = Trend::new(&series, &[(0, &t)], (0.0, 600.0), &[], &[0.0, 300.0, 600.0]);
+        let ys: Vec<f64> = trend.readings.iter().map(|r| r.1).collect();
+        assert_eq!(ys.len(), 3);
+        assert!(ys[1] > ys[0], "60 is lower on the chart than 80");
+        assert!(ys[2] < ys[0], "90, the last reading, is drawn");
+        let (x_last, _) = trend.readings[2];
+        assert!((x_last - RIGHT).abs() < 1e-9);
+        assert!(trend.description.contains("to 90 mmHg"));
+        // Labels stay inside the plot whatever the font.
+        let svg = trend.svg();
+        assert!(svg.contains(&format!(r#"<text x="{:.1}""#, LEFT + 4.0)));
+        assert_eq!(svg.matches("reading-mark").count(), 3);
+        // A monitor's stream is not marked reading by reading.
+        let many: Vec<f64> = (0..600).map(f64::from).collect();
+        let dense = Trend::new(&series, &[(0, &t)], (0.0, 600.0), &[], &many);
+        assert!(dense.readings.is_empty());
     }
 
     #[test]
@@ -472,8 +564,9 @@ mod tests {
             metric: Metric::Perfusion,
             label: "CPP",
             runs: Vec::new(),
+            end_mmhg: None,
         };
-        let trend = Trend::new(&series, &[], (0.0, 0.0), &[]);
+        let trend = Trend::new(&series, &[], (0.0, 0.0), &[], &[]);
         assert!(trend.curve.is_empty());
         assert!(trend.description.contains("no observed time"));
         assert!(!trend.y_ticks.is_empty() && !trend.x_ticks.is_empty());
