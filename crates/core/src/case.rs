@@ -78,6 +78,14 @@ pub struct Case {
     /// The targets; the defaults when left out.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub targets: Option<Vec<TargetSpec>>,
+    /// The operative site, for the venous pressure there (air entrainment
+    /// when it is below atmospheric); the vertex in a seated position when
+    /// left out.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub operative_site: Option<Landmark>,
+    /// An external ventricular drain and where its chamber is set.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub ventricular_drain: Option<DrainSpec>,
     /// The patient's baseline arterial pressure, for relative targets.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub baseline: Option<BaselineSpec>,
@@ -300,6 +308,27 @@ pub struct AssumedSpec {
     pub level: Option<Level>,
 }
 
+/// An external ventricular drain: the drip chamber's height above the
+/// tragus as set on its scale, and whether it is open.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct DrainSpec {
+    /// The chamber's height above the tragus as marked on the drain's
+    /// scale, in the current position (`"15 cmH2O"`).
+    pub set_at: PressureEntry,
+    /// Whether the drain is open to drainage; clamped when false.
+    #[serde(default = "open_by_default", skip_serializing_if = "is_open")]
+    pub open: bool,
+}
+
+fn open_by_default() -> bool {
+    true
+}
+
+fn is_open(open: &bool) -> bool {
+    *open
+}
+
 /// The patient's baseline arterial pressure, and where it was taken.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
@@ -338,6 +367,8 @@ impl Case {
             readings: BTreeMap::new(),
             assume: BTreeMap::new(),
             concern: Vec::new(),
+            operative_site: None,
+            ventricular_drain: None,
             organ_levels: BTreeMap::new(),
             targets: None,
             baseline: None,
@@ -421,6 +452,8 @@ impl Case {
             readings: self.readings.clone(),
             assume: self.assume.clone(),
             concern: self.concern.clone(),
+            operative_site: self.operative_site,
+            ventricular_drain: self.ventricular_drain.clone(),
             organ_levels: self.organ_levels.clone(),
             targets: self.targets.clone(),
             baseline: self.baseline.clone(),

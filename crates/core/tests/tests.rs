@@ -41,6 +41,11 @@ mod properties;
 // Regression tests for core bugs found by these suites, named after the bug.
 mod regressions;
 
+// Safe by default: verdicts with missing inputs, the brain without ICP, the
+// zero each target assumes, a cuff's per-reading spread, operative-site
+// venous pressure, a drain's level, the vertex, no body height.
+mod safety;
+
 // Robustness: arbitrary text, arbitrary JSON and mutated example cases never
 // panic, and every error says something.
 mod robustness;

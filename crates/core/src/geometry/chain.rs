@@ -88,16 +88,43 @@ impl Segment {
 pub struct Body {
     /// Standing body height.
     pub height: Length,
+    /// How far the stated height may be off, cm: 2 when given, the adult
+    /// population's spread when assumed.
+    pub height_spread_cm: f64,
+    /// Whether the height was assumed rather than given.
+    pub height_assumed: bool,
     /// Segment lengths measured on this patient; they replace the estimate.
     pub measured: BTreeMap<Segment, Length>,
 }
+
+/// Half-width of a stated body height, cm.
+pub const STATED_HEIGHT_CM: f64 = 2.0;
+/// The height assumed when none is given, cm: about the middle of adult
+/// heights (NCD Risk Factor Collaboration, eLife 2016: national mean adult
+/// heights from about 150 to 183 cm; from memory).
+pub const ASSUMED_HEIGHT_CM: f64 = 170.0;
+/// Half-width of the assumed height, cm: most adults lie within it (same
+/// source, from memory).
+pub const ASSUMED_HEIGHT_SPREAD_CM: f64 = 15.0;
 
 impl Body {
     /// A body of a given height with every segment estimated.
     pub fn of_height(height: Length) -> Self {
         Body {
             height,
+            height_spread_cm: STATED_HEIGHT_CM,
+            height_assumed: false,
             measured: BTreeMap::new(),
+        }
+    }
+
+    /// An adult of no stated height: the middle of adult heights, with the
+    /// population's spread carried into every range.
+    pub fn assumed() -> Self {
+        Body {
+            height_spread_cm: ASSUMED_HEIGHT_SPREAD_CM,
+            height_assumed: true,
+            ..Body::of_height(cm(ASSUMED_HEIGHT_CM))
         }
     }
 
@@ -113,7 +140,8 @@ impl Body {
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize)]
 #[serde(rename_all = "snake_case", tag = "param", content = "which")]
 pub enum GeometryParam {
-    /// The stated body height (±2 cm).
+    /// The stated body height (±2 cm; the adult population's spread when
+    /// assumed).
     BodyHeight,
     /// A segment's length (±4% when estimated from proportions, ±1 cm measured).
     Segment(Segment),
@@ -153,7 +181,7 @@ impl GeometryParam {
     /// How far the parameter may plausibly be off, in its own unit (cm or °).
     pub fn half_width(self, body: &Body) -> f64 {
         match self {
-            GeometryParam::BodyHeight => 2.0,
+            GeometryParam::BodyHeight => body.height_spread_cm,
             GeometryParam::Segment(s) if body.measured.contains_key(&s) => MEASURED_SEGMENT_CM,
             GeometryParam::Segment(s) => PROPORTION_SPREAD * body.segment_cm(s),
             GeometryParam::Backrest => 5.0,
@@ -173,6 +201,9 @@ impl GeometryParam {
     pub fn label(self, body: &Body) -> String {
         let hw = self.half_width(body);
         match self {
+            GeometryParam::BodyHeight if body.height_assumed => {
+                format!("body height ±{hw:.0} cm (ASSUMED: none was given)")
+            }
             GeometryParam::BodyHeight => format!("body height ±{hw:.0} cm"),
             GeometryParam::Segment(s) if body.measured.contains_key(&s) => {
                 format!("{} length (measured) ±{hw:.0} cm", s.label())
@@ -323,6 +354,11 @@ pub struct Placement {
     pub points: BTreeMap<Landmark, PlanePoint>,
     /// The body as polylines, for drawing.
     pub limbs: Vec<Limb>,
+    /// The heart reference's height above the hips' midpoint, the pivot
+    /// the backrest turns about: with the seat fixed in the room, what ties
+    /// heights in one position to heights in another (a drain's chamber on
+    /// its pole).
+    pub heart_above_hips: Length,
 }
 
 /// The frame and sizes after any shift is applied.
@@ -483,6 +519,11 @@ pub fn place(body: &Body, position: &Position, shift: Option<Shift>) -> Placemen
                 Landmark::AnkleRight,
             ),
         };
+        let shoulder = match side {
+            Side::Left => Landmark::ShoulderLeft,
+            Side::Right => Landmark::ShoulderRight,
+        };
+        world.insert(shoulder, arm.shoulder);
         world.insert(upper_arm, arm.mid_upper);
         world.insert(wrist, arm.wrist);
         world.insert(thigh, leg.mid_thigh);
@@ -491,7 +532,17 @@ pub fn place(body: &Body, position: &Position, shift: Option<Shift>) -> Placemen
         limbs.push((arm_name(side), vec![arm.shoulder, arm.elbow, arm.wrist]));
         limbs.push((leg_name(side), vec![leg.hip, leg.knee, leg.ankle]));
     }
-    let crown = frame.head(neck_base, 1.0, 0.0, 0.0);
+    let crown = frame.head(neck_base, prop::VERTEX, 0.0, 0.0);
+    world.insert(Landmark::Vertex, crown);
+    world.insert(
+        Landmark::PosteriorFossa,
+        frame.head(
+            neck_base,
+            prop::POSTERIOR_FOSSA,
+            forward_cm::POSTERIOR_FOSSA + frame.head_forward,
+            0.0,
+        ),
+    );
     limbs.push(("trunk", vec![V3::default(), neck_base]));
     limbs.push(("head", vec![neck_base, crown]));
 
@@ -514,6 +565,7 @@ pub fn place(body: &Body, position: &Position, shift: Option<Shift>) -> Placemen
         heights,
         points,
         limbs,
+        heart_above_hips: cm(heart.dot(frame.up)),
     }
 }
 

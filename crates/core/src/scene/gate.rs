@@ -179,10 +179,11 @@ impl Checker {
         let mean = component("mean", spec.mean, Component::Mean);
         let accuracy = self.accuracy(&format!("{field}.accuracy"), spec.accuracy);
         let place = self.place(&format!("{field}.level"), spec.level);
-        if spec.mean.is_none() && (spec.systolic.is_none() || spec.diastolic.is_none()) {
+        if spec.mean.is_none() && spec.diastolic.is_none() {
             self.error(Error::missing(
                 field.clone(),
-                "an arterial source needs a mean, or both systolic and diastolic",
+                "an arterial source needs a mean, a diastolic (enough for a limb compartment's \
+                 ΔP), or both systolic and diastolic",
             ));
         }
         if spec.method == Method::Cuff {
@@ -230,14 +231,18 @@ impl Checker {
         let ok = match (quantity, place) {
             (Quantity::Iop, Place::At(l)) => l.is_eye(),
             (Quantity::Compartment, Place::At(l)) => l.is_limb(),
-            (Quantity::Iop | Quantity::Compartment, Place::Height { .. }) => false,
+            // A compartment pressure may be taken at a measured height on a
+            // limb between the landmarks.
+            (Quantity::Compartment, Place::Height { .. }) => true,
+            (Quantity::Iop, Place::Height { .. }) => false,
             _ => true,
         };
         if !ok {
             let what = if quantity == Quantity::Iop {
                 "an eye (eye_left or eye_right)"
             } else {
-                "the limb landmark of the compartment (calf_left, thigh_right, ...)"
+                "the limb landmark of the compartment (calf_left, thigh_right, ...) or its \
+                 measured height"
             };
             self.error(Error::not_applicable(
                 field,
@@ -414,13 +419,26 @@ impl Scene {
                     None
                 }
             });
-        if case.position.is_some() && case.patient.height.is_none() {
-            c.error(Error::missing(
-                "patient.height",
-                "the position needs the patient's standing height to place the landmarks",
-            ));
-        }
-        let mut body = body_height.map(Body::of_height);
+        let needs_a_body = case.position.is_some() || case.baseline.is_some();
+        let mut body = match (body_height, case.patient.height) {
+            (Some(h), _) => Some(Body::of_height(h)),
+            // A height was typed but is out of range: its error stands.
+            (None, Some(_)) => None,
+            (None, None) if needs_a_body => {
+                c.warn(
+                    "patient.height",
+                    format!(
+                        "no body height given: an adult of {:.0} cm ±{:.0} cm is ASSUMED (the \
+                         spread of adult heights; NCD Risk Factor Collaboration 2016, from \
+                         memory), so every range is wider: enter the patient's height",
+                        geometry::ASSUMED_HEIGHT_CM,
+                        geometry::ASSUMED_HEIGHT_SPREAD_CM
+                    ),
+                );
+                Some(Body::assumed())
+            }
+            (None, None) => None,
+        };
         if !case.segments.is_empty() && case.patient.height.is_none() {
             c.error(Error::missing(
                 "patient.height",
@@ -553,10 +571,12 @@ impl Scene {
         for (organ, landmark) in &case.organ_levels {
             let field = format!("organ_levels.{organ}");
             match organ {
-                Organ::Cord | Organ::Kidney if organ.level_choices().contains(landmark) => {
+                Organ::Brain | Organ::Cord | Organ::Kidney
+                    if organ.level_choices().contains(landmark) =>
+                {
                     organ_levels.insert(*organ, *landmark);
                 }
-                Organ::Cord | Organ::Kidney => c.error(Error::not_applicable(
+                Organ::Brain | Organ::Cord | Organ::Kidney => c.error(Error::not_applicable(
                     field,
                     format!(
                         "{} can be checked at {}",
@@ -616,16 +636,25 @@ impl Scene {
             .baseline
             .as_ref()
             .and_then(|b| c.baseline(b, mean_rule));
-        if case.baseline.is_some() && body.is_none() && case.patient.height.is_none() {
-            c.error(Error::missing(
-                "patient.height",
-                "the baseline's position needs the patient's standing height",
-            ));
-        }
+
+        let operative_site = match case.operative_site {
+            Some(site) => Some((site, true)),
+            None => position
+                .as_ref()
+                .filter(|p| p.posture.is_seated())
+                .map(|_| (Landmark::Vertex, false)),
+        };
+        let drain = case.ventricular_drain.as_ref().and_then(|d| {
+            // A chamber from 20 cmH2O below the tragus to 60 above it.
+            c.pressure("ventricular_drain.set_at", d.set_at, DRAIN_RANGE_MMHG)
+                .map(|_| (d.set_at, d.open))
+        });
 
         let scene = Scene {
             body,
             position,
+            operative_site,
+            drain,
             measured,
             densities,
             mean_rule,

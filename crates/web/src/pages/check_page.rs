@@ -7,6 +7,7 @@ use crate::components::case_json::CaseJson;
 use crate::components::caution::Caution;
 use crate::components::demo_notice::DemoNotice;
 use crate::components::figure_view::FigureView;
+use crate::components::hazards_panel::HazardsPanel;
 use crate::components::heights_table::HeightsTable;
 use crate::components::not_checked::NotCheckedList;
 use crate::components::organ_card::OrganCard;
@@ -122,6 +123,8 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                             }
                             <ReadingsSummary checked={c.clone()} />
                             { for c.report.organs.iter().map(|o| html! { <OrganCard organ={o.clone()} /> }) }
+                            <HazardsPanel venous_site={c.report.venous_site.clone()}
+                                drain={c.report.drain.clone()} />
                             <NotCheckedList organs={c.report.not_checked.clone()} />
                             <WarningsPanel cross_checks={c.report.cross_checks.clone()}
                                 warnings={c.report.warnings.clone()} />

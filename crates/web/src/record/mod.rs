@@ -589,9 +589,21 @@ mod tests {
         let a = r.analysis.as_ref().unwrap();
         let cli = record::exposure_of(&record::import_into(&demo(), RECORD).unwrap()).unwrap();
         assert_eq!(a.exposure, cli.0);
-        assert_eq!(a.trends.len(), 3, "CPP, MAP at brain level, MAP at the heart");
-        assert_eq!(a.trends[1].targets, vec![1, 2], "two targets on MAP at brain level");
-        assert_eq!(a.trends[2].targets, vec![3, 4], "two targets on MAP at the heart");
+        assert_eq!(
+            a.trends.len(),
+            3,
+            "CPP, MAP at brain level, MAP at the heart"
+        );
+        assert_eq!(
+            a.trends[1].targets,
+            vec![1, 2],
+            "two targets on MAP at brain level"
+        );
+        assert_eq!(
+            a.trends[2].targets,
+            vec![3, 4],
+            "two targets on MAP at the heart"
+        );
         assert!(a.channels.iter().any(|c| c.estimated));
         assert_eq!(r.start, demo().position);
         assert_eq!(r.opened.as_deref(), Some("beach-chair-record.csv"));
