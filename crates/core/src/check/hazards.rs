@@ -16,8 +16,8 @@ use crate::text::whole;
 use crate::units::{column, to_cm, to_mmhg, Length, PressureUnit};
 
 /// Venous air embolism: the gradient that can entrain air, in words.
-const AIR_ENTRY: &str = "a gradient of about 5 cmH2O between an open vein and the right \
-    atrium can entrain air (Mirski et al., Anesthesiology 2007; from memory)";
+const AIR_ENTRY: &str = "a gradient of about 5 cmH2O to the right atrium is enough; Mirski \
+    et al., Anesthesiology 2007, from memory";
 
 /// The venous pressure at the operative site from CVP, or what CVP would
 /// keep it at atmospheric; a warning when the site may be below it.
@@ -29,11 +29,12 @@ pub(super) fn venous_site(ctx: &Ctx<'_>) -> Option<(VenousSite, Option<Warning>)
     let blood = scene.density(Fluid::Blood);
     let cvp_for_zero = to_mmhg(column(blood, height));
     let label = site.label();
-    let which = if chosen {
-        format!("the {label}")
+    let note = if chosen {
+        ""
     } else {
-        format!("the {label} (no operative site given)")
+        " (no operative site given)"
     };
+    let which = format!("the {label}{note}");
     let cvp = scene.readings.get(&Quantity::Cvp).and_then(|r| {
         let from: Length = match r.place {
             Place::At(l) => ctx.height(l)?,
@@ -44,7 +45,7 @@ pub(super) fn venous_site(ctx: &Ctx<'_>) -> Option<(VenousSite, Option<Warning>)
             r.is_assumed(),
         ))
     });
-    let above = format!("{} {:.0} cm above the heart", which, h);
+    let above = format!("the {label}, {h:.0} cm above the heart{note}");
     let (venous, below, words) = match cvp {
         Some((v, assumed)) => {
             let how = if assumed { "ASSUMED CVP" } else { "CVP" };
