@@ -8,6 +8,7 @@
 //! gives the joints in a picture plane so a front end can draw the position;
 //! there is no drawing code here.
 
+mod body;
 mod chain;
 mod position;
 pub mod proportions;
@@ -16,10 +17,11 @@ use std::collections::BTreeMap;
 
 use serde::Serialize;
 
-pub use chain::{
-    place, Body, GeometryParam, Limb, Placement, PlanePoint, Segment, Shift, ASSUMED_HEIGHT_CM,
-    ASSUMED_HEIGHT_SPREAD_CM, MEASURED_SEGMENT_CM, PROPORTION_SPREAD, STATED_HEIGHT_CM,
+pub use body::{
+    Body, GeometryParam, Segment, Shift, ASSUMED_HEIGHT_CM, ASSUMED_HEIGHT_SPREAD_CM,
+    MEASURED_SEGMENT_CM, PROPORTION_SPREAD, STATED_HEIGHT_CM,
 };
+pub use chain::{place, Limb, Placement, PlanePoint};
 pub use position::{Angles, ArmPlacement, Lie, Position, PositionSpec, Posture};
 
 use crate::landmark::Landmark;

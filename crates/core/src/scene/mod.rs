@@ -7,6 +7,7 @@
 //! uncertain input moved to the edge of its range, which is how every
 //! result's range is found.
 
+mod checker;
 mod gate;
 mod params;
 
