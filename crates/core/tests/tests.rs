@@ -46,6 +46,10 @@ mod regressions;
 // venous pressure, a drain's level, the vertex, no body height.
 mod safety;
 
+// The invariants of DEVELOPERS.md: //! lines, uom only in units, no pressure
+// arithmetic in the screen, the core's allowed dependencies, file sizes.
+mod tidy;
+
 // Robustness: arbitrary text, arbitrary JSON and mutated example cases never
 // panic, and every error says something.
 mod robustness;
