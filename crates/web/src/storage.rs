@@ -8,11 +8,15 @@
 //! record over time never goes in the envelope: it is kept under its own
 //! key, as a case document holding only the timeline and the position the
 //! record starts in, and written only when it changes. Reading never
-//! panics: anything it cannot use gives a reason in words.
+//! panics: anything it cannot use gives a reason in words. The loader
+//! holds a saved state to the core's caps (`limits`) before reading it:
+//! its bytes and nesting, then as many sources and targets and as long a
+//! box as a case may hold, so a stored state never stalls a start.
 
 use plumbline_core::case::{Case, TimelineSpec, FORMAT as CASE_FORMAT, VERSION as CASE_VERSION};
-use plumbline_core::error::Errors;
+use plumbline_core::error::{Error, Errors};
 use plumbline_core::geometry::PositionSpec;
+use plumbline_core::limits::{self, MAX_ARTERIAL, MAX_TARGETS, MAX_TEXT_CHARS};
 use serde::Serialize;
 use serde_json::{Map, Value};
 
@@ -35,9 +39,9 @@ pub const KEPT_RECORD_KEY: &str = "plumbline.kept.record";
 pub const FORMAT: &str = "plumbline-state";
 /// The envelope version this build writes and reads.
 pub const VERSION: u64 = 1;
-/// The longest text read back, characters: far above any check, and a
-/// guard against a store filled by something else.
-pub const MAX_CHARS: usize = 8 * 1024 * 1024;
+/// The longest text read back, bytes: far above any check, and a guard
+/// against a store filled by something else.
+pub const MAX_CHARS: usize = limits::MAX_SAVED_STATE_BYTES;
 
 /// A check read back from the device.
 #[derive(Clone, Debug, PartialEq)]
@@ -103,10 +107,11 @@ pub fn encode(form: &Form, theme: Theme) -> String {
 pub fn decode(text: &str) -> Result<Saved, String> {
     if text.len() > MAX_CHARS {
         return Err(format!(
-            "it is {} characters long, more than a saved check can be",
+            "it is {} bytes long; a saved check is at most {MAX_CHARS}",
             text.len()
         ));
     }
+    limits::check_nesting(text).map_err(|e| format!("it cannot be read ({e})"))?;
     let value: Value = serde_json::from_str(text)
         .map_err(|_| "it is incomplete, perhaps cut short or changed".to_owned())?;
     let Value::Object(mut envelope) = value else {
@@ -119,12 +124,50 @@ pub fn decode(text: &str) -> Result<Saved, String> {
         .map_or(Theme::Device, Theme::from_key);
     let case = Case::from_value(envelope.remove("case").unwrap_or(Value::Null))
         .map_err(|e| format!("its case cannot be read ({})", first_words(&e)))?;
-    let form: Form = serde_json::from_value(envelope.remove("form").unwrap_or(Value::Null))
-        .map_err(|e| format!("its boxes cannot be read ({e})"))?;
+    let form = envelope.remove("form").unwrap_or(Value::Null);
+    form_within_limits(&form).map_err(|e| format!("its boxes cannot be read ({e})"))?;
+    let form: Form =
+        serde_json::from_value(form).map_err(|e| format!("its boxes cannot be read ({e})"))?;
     Ok(Saved {
         form: form.with_base(case),
         theme,
     })
+}
+
+/// The saved boxes against the caps a case has: as many sources and
+/// targets, and no box longer than a case's longest text.
+fn form_within_limits(form: &Value) -> Result<(), Error> {
+    for (key, what, max) in [
+        ("sources", "arterial sources", MAX_ARTERIAL),
+        ("targets", "targets", MAX_TARGETS),
+    ] {
+        let n = form.get(key).and_then(Value::as_array).map_or(0, Vec::len);
+        if n > max {
+            return Err(limits::over(format!("form.{key}"), n, what, max));
+        }
+    }
+    longest_text(form, "form")
+}
+
+/// The first text in `value` longer than a case's longest, by its path.
+fn longest_text(value: &Value, path: &str) -> Result<(), Error> {
+    match value {
+        Value::String(text) if text.len() > MAX_TEXT_CHARS => {
+            let chars = text.chars().count();
+            if chars > MAX_TEXT_CHARS {
+                return Err(limits::over(path, chars, "characters", MAX_TEXT_CHARS));
+            }
+            Ok(())
+        }
+        Value::Array(items) => items
+            .iter()
+            .enumerate()
+            .try_for_each(|(i, v)| longest_text(v, &format!("{path}[{i}]"))),
+        Value::Object(map) => map
+            .iter()
+            .try_for_each(|(k, v)| longest_text(v, &format!("{path}.{k}"))),
+        _ => Ok(()),
+    }
 }
 
 fn check_header(envelope: &Map<String, Value>) -> Result<(), String> {
@@ -273,6 +316,32 @@ mod tests {
             "its boxes cannot be read",
         );
         assert!(decode_record("{").is_err());
+    }
+
+    #[test]
+    fn a_state_past_the_caps_says_which() {
+        let mut value: Value = serde_json::from_str(&encode(&demo_form(), Theme::Light)).unwrap();
+        let source = value["form"]["sources"][0].clone();
+        value["form"]["sources"] = Value::Array(vec![source; MAX_ARTERIAL + 1]);
+        assert_eq!(
+            decode(&value.to_string()).unwrap_err(),
+            "its boxes cannot be read (form.sources: 65 arterial sources; at most 64 are accepted)"
+        );
+        let mut value: Value = serde_json::from_str(&encode(&demo_form(), Theme::Light)).unwrap();
+        value["form"]["haematocrit"] = Value::from("4".repeat(MAX_TEXT_CHARS + 1));
+        assert_eq!(
+            decode(&value.to_string()).unwrap_err(),
+            "its boxes cannot be read (form.haematocrit: 1001 characters; at most 1000 are accepted)"
+        );
+        let deep = format!(
+            r#"{{"format": "plumbline-state", "version": 1, "form": {}{}}}"#,
+            "[".repeat(300),
+            "]".repeat(300)
+        );
+        assert_eq!(
+            decode(&deep).unwrap_err(),
+            "it cannot be read (301 levels of nesting; at most 32 are accepted)"
+        );
     }
 
     #[test]

@@ -20,19 +20,21 @@
 //! or clock times, all rows alike). Lines starting with `#` are comments. A
 //! comma, semicolon or tab separates fields, whichever the header uses. Every
 //! problem is reported with its line and column, and nothing is imported
-//! until the file is clean.
+//! until the file is clean. The file's bytes, rows, columns and line length
+//! are capped (`limits`) before a line is split.
 
 use std::collections::BTreeMap;
 
 use super::clock::{self, Stamp};
 use super::{channel_input, input_range, MAX_SAMPLES, MAX_SPAN_S};
-use crate::case::{ChannelSpec, TimelineSpec, MAX_BYTES};
+use crate::case::{ChannelSpec, TimelineSpec};
 use crate::error::{Error, ErrorKind, Errors};
+use crate::limits::{self, MAX_CSV_COLUMNS, MAX_CSV_LINE_BYTES, MAX_CSV_ROWS};
 use crate::scene::Scene;
 use crate::units::{to_mmhg, PressureEntry, PressureUnit};
 
 /// The most problems listed before the import gives up.
-pub const MAX_PROBLEMS: usize = 100;
+pub const MAX_PROBLEMS: usize = limits::MAX_CSV_PROBLEMS;
 
 /// Splits one line into fields, honouring double quotes (`""` inside
 /// quotes is a quote).
@@ -106,6 +108,12 @@ impl Reader {
 
     fn shape(&mut self, line: usize, column: usize, message: String) {
         self.error(line, column, ErrorKind::Shape { message });
+    }
+
+    /// A cap met on `line`: `found` of `what` where `max` are accepted.
+    fn over(&mut self, line: usize, found: usize, what: &str, max: usize) {
+        let kind = limits::over("", found, what, max).kind;
+        self.error(line, 0, kind);
     }
 }
 
@@ -194,14 +202,7 @@ pub fn import(text: &str, scene: &Scene) -> Result<TimelineSpec, Errors> {
         errors: Errors::default(),
         full: false,
     };
-    if text.len() > MAX_BYTES {
-        r.shape(
-            0,
-            0,
-            format!("the file is {} bytes; at most {MAX_BYTES}", text.len()),
-        );
-        return Err(r.errors);
-    }
+    limits::check_bytes("", text.len())?;
     let mut lines = text
         .lines()
         .enumerate()
@@ -211,12 +212,25 @@ pub fn import(text: &str, scene: &Scene) -> Result<TimelineSpec, Errors> {
         r.shape(1, 0, "the file has no header line".to_owned());
         return Err(r.errors);
     };
+    if header.len() > MAX_CSV_LINE_BYTES {
+        r.over(
+            header_line,
+            header.len(),
+            "bytes in one line",
+            MAX_CSV_LINE_BYTES,
+        );
+        return Err(r.errors);
+    }
     let sep = [',', ';', '\t']
         .into_iter()
         .max_by_key(|c| header.matches(*c).count())
         .unwrap_or(',');
     let decimal_comma = sep != ',';
     let head = split(header, sep);
+    if head.len() > MAX_CSV_COLUMNS {
+        r.over(header_line, head.len(), "columns", MAX_CSV_COLUMNS);
+        return Err(r.errors);
+    }
     let names: Vec<String> = head.iter().map(|h| h.trim().to_ascii_lowercase()).collect();
     let kind = match names.first().map(String::as_str) {
         Some("elapsed_s") => TimeKind::Elapsed,
@@ -275,9 +289,17 @@ pub fn import(text: &str, scene: &Scene) -> Result<TimelineSpec, Errors> {
 
     let mut samples = 0usize;
     let mut last_row_time = f64::NEG_INFINITY;
-    for (line, text) in lines {
+    for (row, (line, text)) in lines.enumerate() {
         if r.full {
             break;
+        }
+        if row == MAX_CSV_ROWS {
+            r.over(line, row + 1, "rows (or more)", MAX_CSV_ROWS);
+            break;
+        }
+        if text.len() > MAX_CSV_LINE_BYTES {
+            r.over(line, text.len(), "bytes in one line", MAX_CSV_LINE_BYTES);
+            continue;
         }
         let fields = split(text, sep);
         if fields.len() != head.len() {
@@ -593,6 +615,26 @@ mod tests {
             let wide = text.replace("time,channel,value", "elapsed_s,radial line.mean [mmHg]");
             let _ = import(&wide, &scene());
         }
+    }
+
+    #[test]
+    fn caps_are_met_before_a_line_is_split() {
+        let long = format!("0,{}\n", "7".repeat(MAX_CSV_LINE_BYTES));
+        let text = format!("elapsed_s,radial line.mean [mmHg]\n{long}");
+        assert_eq!(
+            import(&text, &scene()).unwrap_err().to_string(),
+            "line 2: 65538 bytes in one line; at most 65536 are accepted"
+        );
+        let header = format!("elapsed_s{}\n0\n", ",x".repeat(MAX_CSV_COLUMNS));
+        assert_eq!(
+            import(&header, &scene()).unwrap_err().to_string(),
+            "line 1: 258 columns; at most 257 are accepted"
+        );
+        let big = " ".repeat(limits::MAX_DOCUMENT_BYTES + 1);
+        assert_eq!(
+            import(&big, &scene()).unwrap_err().to_string(),
+            "16777217 bytes; at most 16777216 are accepted"
+        );
     }
 
     #[test]
