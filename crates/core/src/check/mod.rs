@@ -58,6 +58,7 @@ pub fn check_json(text: &str) -> Result<Report, Errors> {
 /// # Errors
 /// Every problem with the case, each naming its field.
 pub fn check_case(case: &Case) -> Result<Report, Errors> {
+    crate::limits::check_case(case)?;
     Ok(check(&Scene::from_case(case)?))
 }
 
