@@ -1,9 +1,16 @@
 #!/usr/bin/env bash
 # Runs every test of the project: the README's test command, and what CI runs.
+# On a fresh machine it first installs what is missing (scripts/setup.sh, as
+# scripts/serve.sh does), so this one command is all a newcomer needs.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
 step() { printf '\n== %s\n' "$*"; }
+
+if ! scripts/setup.sh --check; then
+  step "installing what is missing (scripts/setup.sh)"
+  scripts/setup.sh
+fi
 
 step "formatting"
 cargo fmt --all -- --check

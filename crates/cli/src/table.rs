@@ -165,6 +165,17 @@ fn write_report(out: &mut String, r: &Report) -> std::fmt::Result {
         write_sweeps(out, &r.sweeps)?;
     }
 
+    if let Some(site) = &r.venous_site {
+        writeln!(out, "Operative site")?;
+        writeln!(out, "  {}", site.words)?;
+        writeln!(out)?;
+    }
+    if let Some(drain) = &r.drain {
+        writeln!(out, "Ventricular drain")?;
+        writeln!(out, "  {}", drain.words)?;
+        writeln!(out)?;
+    }
+
     if !r.warnings.is_empty() {
         writeln!(out, "Warnings")?;
         for w in &r.warnings {

@@ -19,6 +19,7 @@ pub mod fluid;
 pub mod geometry;
 mod keyed;
 pub mod landmark;
+pub mod limits;
 pub mod organ;
 pub mod reading;
 pub mod record;

@@ -115,7 +115,7 @@ impl Organ {
                 AnkleLeft,
                 AnkleRight,
             ],
-            Organ::Brain => &[Tragus],
+            Organ::Brain => &[Tragus, Vertex],
             Organ::Abdomen => &[IliacCrest],
             Organ::Heart | Organ::HeartCpr | Organ::WholeBody => &[Heart],
         }

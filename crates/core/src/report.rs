@@ -44,8 +44,15 @@ pub struct Report {
     pub not_checked: Vec<NotChecked>,
     /// Agreement between arterial sources once at one level.
     pub cross_checks: Vec<CrossCheck>,
-    /// Required site readings across backrest angles.
+    /// The site readings to defend across backrest angles.
     pub sweeps: Vec<Sweep>,
+    /// The patient's height as used: stated, or assumed when none was given.
+    pub patient_height: Option<PatientHeight>,
+    /// The venous pressure at the operative site.
+    pub venous_site: Option<VenousSite>,
+    /// Where an external ventricular drain drains, now and at other
+    /// backrest angles.
+    pub drain: Option<DrainReport>,
     /// The body in its position, for drawing.
     pub figure: Option<Figure>,
     /// Things worth a second look.
@@ -119,6 +126,9 @@ pub struct SourceRow {
     pub accuracy_mmhg: f64,
     /// Where that accuracy comes from.
     pub accuracy_source: String,
+    /// What the model assumes about this source that a reader should know,
+    /// with its size (the saline in a transducer's tubing).
+    pub note: Option<String>,
     /// Whether this source drives the organ results.
     pub primary: bool,
 }
@@ -409,4 +419,62 @@ pub struct NotChecked {
     pub label: &'static str,
     /// What it needs.
     pub needs: Vec<String>,
+}
+
+/// The body height the geometry used.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct PatientHeight {
+    /// Standing height, cm.
+    pub height_cm: f64,
+    /// Its half-width in the ranges, cm.
+    pub uncertainty_cm: f64,
+    /// Whether it was assumed because none was given.
+    pub assumed: bool,
+}
+
+/// The venous pressure at an operative site above or below the heart.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct VenousSite {
+    /// The site.
+    pub site: Landmark,
+    /// It in words.
+    pub label: &'static str,
+    /// Whether the case named it (else the vertex of a seated patient).
+    pub chosen: bool,
+    /// Its height above the heart reference, cm.
+    pub above_heart_cm: f64,
+    /// The venous pressure there, from CVP at the heart, mmHg; `None`
+    /// without a CVP.
+    pub venous_mmhg: Option<f64>,
+    /// The CVP that would bring it to atmospheric, mmHg.
+    pub cvp_for_zero_mmhg: f64,
+    /// Whether it is below atmospheric; `None` without a CVP.
+    pub below_atmospheric: Option<bool>,
+    /// The finding in words.
+    pub words: String,
+}
+
+/// An external ventricular drain's opening pressure.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct DrainReport {
+    /// Whether it is open.
+    pub open: bool,
+    /// The ICP at the tragus above which it drains now, cmH2O.
+    pub opens_above_cmh2o: f64,
+    /// The same, mmHg.
+    pub opens_above_mmhg: f64,
+    /// Where it would drain at other backrest angles without re-levelling
+    /// (the chamber stays on its pole, the head moves with the bed).
+    pub by_backrest: Vec<DrainPoint>,
+    /// The finding in words.
+    pub words: String,
+}
+
+/// A drain's opening pressure at one backrest angle.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct DrainPoint {
+    /// Backrest angle, degrees.
+    pub backrest_deg: f64,
+    /// ICP at the tragus above which it drains, cmH2O.
+    pub opens_above_cmh2o: f64,
 }

@@ -140,6 +140,19 @@ fn sitting_craniotomy() {
         1e-3,
     );
     assert!(r.cross_checks.iter().all(|c| c.agree));
+    // The posterior fossa, the operative site, sits above the heart: CVP 4
+    // carried up the blood column is below atmospheric there (air
+    // entrainment; Mirski 2007, M). The drain is clamped.
+    let fossa = above_heart(&r, Landmark::PosteriorFossa);
+    let site = r.venous_site.as_ref().expect("the operative site");
+    check(
+        "venous at the fossa",
+        site.venous_mmhg.unwrap_or(f64::NAN),
+        4.0 - crate::util::column(crate::util::BLOOD, fossa),
+        1e-6,
+    );
+    assert_eq!(site.below_atmospheric, Some(true));
+    assert!(r.drain.as_ref().is_some_and(|d| !d.open));
 }
 
 #[test]

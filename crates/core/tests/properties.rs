@@ -21,6 +21,7 @@ use plumbline_core::geometry::{self, ArmPlacement, Body, PositionSpec, Posture, 
 use plumbline_core::landmark::Landmark;
 use plumbline_core::organ::{Metric, Organ};
 use plumbline_core::report::Report;
+use plumbline_core::target::Status;
 use plumbline_core::units::{
     cm, to_cm, to_mmhg, LengthEntry, LengthUnit, PressureEntry, PressureUnit,
 };
@@ -259,6 +260,64 @@ proptest! {
             m.beside.as_ref().map_or(m.value_mmhg, |b| b.value_mmhg)
         };
         prop_assert!(at_crest(&after) < at_crest(&before) - 0.01);
+    }
+}
+
+proptest! {
+    #![proptest_config(config(48))]
+
+    /// Silence is not safety: with any set of readings removed, an organ is
+    /// met only when at least one of its targets was evaluated and none is
+    /// missed; an organ with nothing evaluated is "not evaluated"; and the
+    /// summary is met only when every organ of concern is.
+    #[test]
+    fn no_organ_with_a_missing_input_is_ever_met(
+        levels in levels(),
+        keep in proptest::collection::vec(any::<bool>(), 10),
+    ) {
+        let mut doc: serde_json::Value = serde_json::from_str(&levels.case(0.0))
+            .map_err(|e| TestCaseError::fail(e.to_string()))?;
+        let names = ["icp", "cvp", "iap", "csf", "iop", "compartment", "lvedp",
+                     "cpr_aortic_relaxation", "cpr_right_atrial_relaxation"];
+        if let Some(readings) = doc["readings"].as_object_mut() {
+            for (name, kept) in names.iter().zip(&keep) {
+                if !kept {
+                    readings.remove(*name);
+                }
+            }
+        }
+        if !keep[9] {
+            doc["arterial"] = serde_json::json!([]);
+        }
+        let report = check_json(&doc.to_string()).map_err(|e| TestCaseError::fail(e.to_string()))?;
+        for o in &report.organs {
+            let targets: Vec<_> = o.metrics.iter().flat_map(|m| m.targets.iter()).collect();
+            let judged = targets.iter().filter(|t| t.status.is_judged()).count();
+            match o.verdict.status {
+                Status::Met => {
+                    prop_assert!(judged > 0, "{} met with nothing judged", o.label);
+                    // With a measured ICP, CPP and ICP decide the brain; its
+                    // own-level MAP targets only advise.
+                    for m in &o.metrics {
+                        let advises = o.organ == Organ::Brain && m.metric == Metric::Inflow && keep[0];
+                        prop_assert!(
+                            advises || m.targets.iter().all(|t| !t.status.is_missed()),
+                            "{} {}", o.label, m.label
+                        );
+                    }
+                }
+                Status::NotEvaluated => prop_assert_eq!(judged, 0, "{}", o.label),
+                _ => prop_assert!(targets.iter().any(|t| t.status.is_missed()), "{}", o.label),
+            }
+            for t in &targets {
+                prop_assert_eq!(t.status == Status::NotEvaluated, t.threshold_mmhg.is_none());
+            }
+        }
+        if report.summary.status == Status::Met {
+            prop_assert!(!report.summary.organs.is_empty());
+            prop_assert!(report.summary.organs.iter().all(|l| l.status == Status::Met));
+        }
+        prop_assert!(!report.summary.headline.contains("Every"));
     }
 }
 

@@ -9,9 +9,8 @@ use yew::prelude::*;
 use crate::browser;
 use crate::pages::check_page::CheckPage;
 use crate::persist::{self, Persisted};
-use crate::session::{is_link, SessionAction, Stored};
+use crate::session::{is_link, SessionAction};
 use crate::state::{Action, State};
-use crate::storage::{KEPT_KEY, KEPT_RECORD_KEY, RECORD_KEY, STATE_KEY, UNREADABLE_KEY};
 
 /// Props of [`App`].
 #[derive(Properties, PartialEq, Default)]
@@ -20,16 +19,7 @@ pub struct AppProps {}
 /// The app.
 #[component]
 pub fn App(_props: &AppProps) -> Html {
-    let state = use_reducer(|| {
-        let stored = Stored {
-            state: browser::read(STATE_KEY),
-            record: browser::read(RECORD_KEY),
-            kept: browser::read(KEPT_KEY),
-            kept_record: browser::read(KEPT_RECORD_KEY),
-            unreadable: browser::read(UNREADABLE_KEY),
-        };
-        State::start(stored, Some(&browser::fragment()))
-    });
+    let state = use_reducer(|| State::start(persist::stored(), Some(&browser::fragment())));
     let theme = state.theme;
     use_effect_with(theme, move |theme| {
         if let Some(root) = gloo::utils::document().document_element() {
@@ -49,17 +39,20 @@ pub fn App(_props: &AppProps) -> Html {
             }
         });
     }
-    use_effect_with((), move |_| {
-        let flush = move |_: &web_sys::Event| {
-            if let Some(latest) = persist::latest() {
-                persisted.borrow_mut().sync(&latest);
-            }
-        };
-        let document = gloo::utils::document();
-        let hidden = EventListener::new(&document, "visibilitychange", flush.clone());
-        let closing = EventListener::new(&gloo::utils::window(), "pagehide", flush);
-        move || drop((hidden, closing))
-    });
+    {
+        // The handle reads the state as the last action left it, rendered
+        // or not (Yew renders a large page in slices).
+        let state = state.clone();
+        use_effect_with((), move |_| {
+            let flush = move |_: &web_sys::Event| {
+                persisted.borrow_mut().sync(&state);
+            };
+            let document = gloo::utils::document();
+            let hidden = EventListener::new(&document, "visibilitychange", flush.clone());
+            let closing = EventListener::new(&gloo::utils::window(), "pagehide", flush);
+            move || drop((hidden, closing))
+        });
+    }
     {
         let d = state.dispatcher();
         use_effect_with((), move |_| {

@@ -3,11 +3,19 @@
 //! calmly. Pages make the notes once per render; leaf components receive
 //! them as a value and never hold the state.
 
-use std::rc::Rc;
-
 use plumbline_core::error::{ErrorKind, Errors, Warning};
 
-use crate::state::{Message, State};
+/// A message shown beside a box.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Message {
+    /// The box cannot be used as it is.
+    Error(String),
+    /// Worth a second look.
+    Warning(String),
+    /// Still to be entered: said calmly, not as a mistake, so a new check
+    /// opens without alarms.
+    Needed(String),
+}
 
 /// The messages of one check, by the path of the box they are about.
 #[derive(Clone, Debug, Default, PartialEq)]
@@ -17,17 +25,10 @@ pub struct Notes {
 }
 
 impl Notes {
-    /// The notes of the state on screen: its problems, and the warnings of
-    /// the last good check.
-    pub fn of(state: &State) -> Rc<Notes> {
-        Rc::new(Notes {
-            errors: state.errors.clone(),
-            warnings: state
-                .checked
-                .as_ref()
-                .map(|c| c.report.warnings.clone())
-                .unwrap_or_default(),
-        })
+    /// The notes of a check: its problems, and the warnings of the last
+    /// good check.
+    pub fn new(errors: Errors, warnings: Vec<Warning>) -> Notes {
+        Notes { errors, warnings }
     }
 
     /// The messages beside the box at `path`: its problems (what is missing

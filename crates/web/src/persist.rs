@@ -8,12 +8,13 @@
 //! itself changes (its samples are shared, so "changed" is one pointer
 //! comparison).
 //!
-//! The screen writes after each render; the reducer also notes each new
-//! state here ([`note`]), so a page hidden or closed between a change and
-//! its render (Yew renders a large page in slices) still saves it.
+//! This is one of the effects that run outside the reducer: the app calls
+//! [`Persisted::sync`] after each render, and when the page is hidden or
+//! closed with the state handle's current value (Yew's handle reads the
+//! state as the last action left it, so a change not yet rendered is
+//! saved too).
 
-use std::cell::RefCell;
-use std::rc::{Rc, Weak};
+use std::rc::Rc;
 
 use plumbline_core::case::RulesSpec;
 use plumbline_core::case::TimelineSpec;
@@ -22,23 +23,30 @@ use plumbline_core::geometry::PositionSpec;
 use crate::browser;
 use crate::form::Form;
 use crate::record::Record;
+use crate::saved;
 use crate::session::{Kept, Unreadable};
 use crate::state::{State, Theme};
-use crate::storage::{self, KEPT_KEY, KEPT_RECORD_KEY, RECORD_KEY, STATE_KEY, UNREADABLE_KEY};
+use crate::storage::{Stored, KEPT_KEY, KEPT_RECORD_KEY, RECORD_KEY, STATE_KEY, UNREADABLE_KEY};
 
-thread_local! {
-    static LATEST: RefCell<Weak<State>> = const { RefCell::new(Weak::new()) };
+/// Everything the device keeps, read from its storage (nothing when
+/// storage is off).
+pub fn stored() -> Stored {
+    Stored {
+        state: browser::read(STATE_KEY),
+        record: browser::read(RECORD_KEY),
+        kept: browser::read(KEPT_KEY),
+        kept_record: browser::read(KEPT_RECORD_KEY),
+        unreadable: browser::read(UNREADABLE_KEY),
+    }
 }
 
-/// Notes the state the reducer just made: a weak reference, no copy (the
-/// screen holds the state itself).
-pub fn note(state: &Rc<State>) {
-    LATEST.with(|latest| *latest.borrow_mut() = Rc::downgrade(state));
-}
-
-/// The state last noted, while the screen still holds it.
-pub fn latest() -> Option<Rc<State>> {
-    LATEST.with(|latest| latest.borrow().upgrade())
+/// Writes `text` under `key`, or removes the key for `None`; `false` when
+/// storage is off or full.
+fn put(key: &str, text: Option<&str>) -> bool {
+    match text {
+        Some(text) => browser::write(key, text),
+        None => browser::remove(key),
+    }
 }
 
 /// What identifies a record's content: its shared samples, rules and start.
@@ -70,14 +78,6 @@ fn same<T>(a: &Option<Rc<T>>, b: &Option<Rc<T>>) -> bool {
     }
 }
 
-/// Writes `value` under `key`, or removes the key for `None`.
-fn put(key: &str, value: Option<String>) -> bool {
-    match value {
-        Some(text) => browser::write(key, &text),
-        None => browser::remove(key),
-    }
-}
-
 /// What was last written, part by part (`None`: not yet, or it failed).
 #[derive(Default)]
 pub struct Persisted {
@@ -101,29 +101,27 @@ impl Persisted {
             .as_ref()
             .is_some_and(|u| same(u, unreadable))
         {
-            let written = put(UNREADABLE_KEY, unreadable.as_ref().map(|u| u.raw.clone()));
+            let written = put(UNREADABLE_KEY, unreadable.as_ref().map(|u| u.raw.as_str()));
             ok &= written;
             self.unreadable = written.then(|| unreadable.clone());
         }
         let kept = &state.session.kept;
         if !self.kept.as_ref().is_some_and(|k| same(k, kept)) {
-            let form = kept.as_ref().map(|k| storage::encode(&k.form, state.theme));
-            let record = kept
-                .as_ref()
-                .and_then(|k| storage::encode_record(&k.record));
-            let written = put(KEPT_RECORD_KEY, record) & put(KEPT_KEY, form);
+            let form = kept.as_ref().map(|k| saved::encode(&k.form, state.theme));
+            let record = kept.as_ref().and_then(|k| saved::encode_record(&k.record));
+            let written = put(KEPT_RECORD_KEY, record.as_deref()) & put(KEPT_KEY, form.as_deref());
             ok &= written;
             self.kept = written.then(|| kept.clone());
         }
         let record = mark(&state.record);
         if !self.record.as_ref().is_some_and(|r| same_mark(r, &record)) {
-            let written = put(RECORD_KEY, storage::encode_record(&state.record));
+            let written = put(RECORD_KEY, saved::encode_record(&state.record).as_deref());
             ok &= written;
             self.record = written.then_some(record);
         }
         let open = (&state.form, state.theme);
         if self.open.as_ref().map(|(f, t)| (f, *t)) != Some(open) {
-            let written = browser::write(STATE_KEY, &storage::encode(&state.form, state.theme));
+            let written = put(STATE_KEY, Some(&saved::encode(&state.form, state.theme)));
             ok &= written;
             self.open = written.then(|| (state.form.clone(), state.theme));
         }

@@ -8,6 +8,7 @@
 //! [`sweep`] follows the needed reading across backrest angles.
 
 mod cross;
+mod hazards;
 mod spread;
 mod sweep;
 mod targets;
@@ -19,18 +20,20 @@ pub(crate) use targets::threshold;
 use crate::case::{Case, VERSION};
 use crate::error::{Errors, Warning};
 use crate::evaluate::{self, metric_in, organ_place, table, Ctx, Input, Missing, Value};
+use crate::fluid::Fluid;
 use crate::geometry;
 use crate::landmark::Landmark;
 use crate::organ::{Metric, Organ};
-use crate::reading::{Component, MeanBasis};
+use crate::reading::{Component, MeanBasis, Method};
 use crate::report::{
     Beside, HeightRow, MetricReport, MissingMetric, NotChecked, OrganReport, OutflowCandidate,
-    OutflowReport, Provenance, Report, SourceRow, StepReport, CAUTION, RESULT_FORMAT,
+    OutflowReport, PatientHeight, Provenance, Report, SourceRow, StepReport, CAUTION,
+    RESULT_FORMAT,
 };
 use crate::scene::{Place, Scene};
 use crate::target;
 use crate::text::{mmhg_with_range, whole};
-use crate::units::{to_cm, to_mmhg, Pressure};
+use crate::units::{cm, column, to_cm, to_kg_per_m3, to_mmhg, Pressure};
 use spread::{shifted_scenes, Shifts};
 use targets::{not_evaluated, target_report, Judged};
 
@@ -55,6 +58,7 @@ pub fn check_json(text: &str) -> Result<Report, Errors> {
 /// # Errors
 /// Every problem with the case, each naming its field.
 pub fn check_case(case: &Case) -> Result<Report, Errors> {
+    crate::limits::check_case(case)?;
     Ok(check(&Scene::from_case(case)?))
 }
 
@@ -140,6 +144,10 @@ pub fn check(scene: &Scene) -> Report {
         });
     }
 
+    let venous_site = hazards::venous_site(&ctx).map(|(site, warning)| {
+        warnings.extend(warning);
+        site
+    });
     Report {
         format: RESULT_FORMAT,
         version: VERSION,
@@ -151,6 +159,13 @@ pub fn check(scene: &Scene) -> Report {
         not_checked,
         cross_checks: cross::cross_checks(&ctx, &shifts),
         sweeps: sweep::sweeps(&ctx),
+        patient_height: scene.body.as_ref().map(|b| PatientHeight {
+            height_cm: to_cm(b.height),
+            uncertainty_cm: b.height_spread_cm,
+            assumed: b.height_assumed,
+        }),
+        venous_site,
+        drain: hazards::drain(scene),
         figure: match (&scene.body, &scene.position) {
             (Some(body), Some(position)) => Some(geometry::figure(body, position)),
             _ => None,
@@ -361,8 +376,28 @@ fn source_rows(ctx: &Ctx<'_>) -> Vec<SourceRow> {
                 } else {
                     a.method.accuracy_source().to_owned()
                 },
+                note: (a.method == Method::Transducer).then(|| tubing_note(scene)),
                 primary: scene.primary == Some(i),
             }
         })
         .collect()
+}
+
+/// The saline in a transducer's tubing, stated with its size: the column
+/// between the catheter tip and the transducer is saline, not blood, and
+/// the tip's height is not in the case, so it is taken as blood.
+fn tubing_note(scene: &Scene) -> String {
+    let per_cm = to_mmhg(column(
+        scene.density(Fluid::Blood) - scene.density(Fluid::Saline),
+        cm(1.0),
+    ));
+    format!(
+        "the tubing from the catheter tip to the transducer holds saline ({:.0} kg/m³), taken \
+         as blood ({:.0} kg/m³): each cm the tip lies below the transducer adds {:.3} mmHg of \
+         error ({:.1} mmHg over 30 cm)",
+        to_kg_per_m3(scene.density(Fluid::Saline)),
+        to_kg_per_m3(scene.density(Fluid::Blood)),
+        per_cm,
+        per_cm * 30.0
+    )
 }

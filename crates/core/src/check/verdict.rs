@@ -85,11 +85,22 @@ pub(super) fn organ_verdict(
             Status::Above
         };
         let value = format!("{} {}", m.label, m.display);
-        let assumed: String = m
+        let mut assumed: String = m
             .assumed
             .iter()
             .map(|q| format!("; uses an ASSUMED {}", q.label()))
             .collect();
+        for (a, t) in metrics
+            .iter()
+            .filter(|a| advisory(organ, a.metric, metrics, scene))
+            .flat_map(|a| a.targets.iter().map(move |t| (a, t)))
+            .filter(|(_, t)| t.status.is_missed())
+        {
+            assumed.push_str(&format!(
+                "; {} {} misses {} (advisory while ICP is measured)",
+                a.label, a.display, t.target
+            ));
+        }
         return OrganVerdict {
             status,
             words: format!("{value}: {} ({}){assumed}", t.words, t.target),

@@ -110,9 +110,9 @@ pub const TABLE: [Row; 18] = [
         judged: Frame::OrganLevel,
         at_organ: f(MAP, &[(Icp, true), (Cvp, false)], 1.0),
         by_convention: Some(f(MAP, &[(Icp, true)], 1.0)),
-        zero: "MAP at the tragus, as with the arterial line levelled at the tragus (joint \
-               statement of the UK neuro-anaesthesia and neurosurgical societies, Br J Anaesth \
-               2015)",
+        zero: "MAP at the brain's own level (the tragus, or the vertex when chosen), as with the \
+               arterial line levelled at the tragus (joint statement of the UK neuro-anaesthesia \
+               and neurosurgical societies, Br J Anaesth 2015)",
         beside: "a monitor's MAP − ICP with the line zeroed at the heart",
     },
     Row {

@@ -32,43 +32,78 @@ pub use rules::{
 pub use series::{series, series_csv, MetricSeries, Run};
 pub use timeline::Timeline;
 
-use crate::case::{Case, TimelineSpec};
+use crate::case::{Case, RulesSpec, TimelineSpec};
 use crate::error::{Error, Errors};
 use crate::scene::Scene;
 
-/// The case with its record's samples replaced by those of a CSV file;
-/// position changes and rules already in the case are kept.
-///
-/// # Errors
-/// Problems with the case, or every problem with the file by line and column.
-pub fn import_into(case: &Case, csv_text: &str) -> Result<Case, Errors> {
-    let scene = Scene::from_case(case)?;
-    let imported = csv::import(csv_text, &scene)?;
-    let mut next = case.clone();
-    let timeline = next.timeline.get_or_insert_with(TimelineSpec::default);
-    timeline.channels = imported.channels;
-    if imported.clock_start.is_some() {
-        timeline.clock_start = imported.clock_start;
-    }
-    Timeline::from_spec(timeline, &scene)?;
-    Ok(next)
+/// A case and its record, each checked once: what every analysis of the
+/// record reads, so the exposure and the series never check twice.
+#[derive(Clone, Debug)]
+pub struct Recorded {
+    /// The case, carrying its record.
+    pub case: Case,
+    /// The case, checked.
+    pub scene: Scene,
+    /// The record, checked against it.
+    pub timeline: Timeline,
 }
 
-/// The exposure over a case's record, and its organ-level series as CSV.
-///
-/// # Errors
-/// Problems with the case or its record; a case without a record.
-pub fn exposure_of(case: &Case) -> Result<(Exposure, String), Errors> {
-    let scene = Scene::from_case(case)?;
-    let spec = case
-        .timeline
-        .as_ref()
-        .ok_or_else(|| Error::missing("timeline", "the case has no record to analyse"))?;
-    let timeline = Timeline::from_spec(spec, &scene)?;
-    Ok((
-        analyze(&scene, &timeline, None),
-        series_csv(&scene, &timeline),
-    ))
+impl Recorded {
+    /// Checks a case that carries its record.
+    ///
+    /// # Errors
+    /// Problems with the case or its record; a case without a record.
+    pub fn of_case(case: Case) -> Result<Recorded, Errors> {
+        let scene = Scene::from_case(&case)?;
+        let spec = case
+            .timeline
+            .as_ref()
+            .ok_or_else(|| Error::missing("timeline", "the case has no record to analyse"))?;
+        let timeline = Timeline::from_spec(spec, &scene)?;
+        Ok(Recorded {
+            case,
+            scene,
+            timeline,
+        })
+    }
+
+    /// The case with its record's samples replaced by those of a CSV file,
+    /// checked once. Position changes already in the case are kept; each
+    /// rule in `rules` replaces the case's, the others stay.
+    ///
+    /// # Errors
+    /// Problems with the case, or every problem with the file by line and
+    /// column.
+    pub fn import(case: &Case, csv_text: &str, rules: &RulesSpec) -> Result<Recorded, Errors> {
+        let scene = Scene::from_case(case)?;
+        let imported = csv::import(csv_text, &scene)?;
+        let mut case = case.clone();
+        let spec = case.timeline.get_or_insert_with(TimelineSpec::default);
+        spec.channels = imported.channels;
+        if imported.clock_start.is_some() {
+            spec.clock_start = imported.clock_start;
+        }
+        let kept = &mut spec.rules;
+        kept.hold_max_s = rules.hold_max_s.or(kept.hold_max_s);
+        kept.gap_max_s = rules.gap_max_s.or(kept.gap_max_s);
+        kept.min_episode_s = rules.min_episode_s.or(kept.min_episode_s);
+        let timeline = Timeline::from_spec(spec, &scene)?;
+        Ok(Recorded {
+            case,
+            scene,
+            timeline,
+        })
+    }
+
+    /// The exposure outside each target over the whole record.
+    pub fn exposure(&self) -> Exposure {
+        analyze(&self.scene, &self.timeline, None)
+    }
+
+    /// The organ-level series as CSV, built only when asked for.
+    pub fn series_csv(&self) -> String {
+        series_csv(&self.scene, &self.timeline)
+    }
 }
 
 #[cfg(test)]

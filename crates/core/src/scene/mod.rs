@@ -7,6 +7,7 @@
 //! uncertain input moved to the edge of its range, which is how every
 //! result's range is found.
 
+mod checker;
 mod gate;
 mod params;
 
@@ -29,6 +30,9 @@ use crate::units::{
 
 /// Heights a reading level or measurement may have, cm from the heart.
 pub const HEIGHT_RANGE_CM: (f64, f64) = (-120.0, 120.0);
+/// Drain chamber settings accepted, mmHg: 20 cmH2O below the tragus to 60
+/// above it.
+pub const DRAIN_RANGE_MMHG: (f64, f64) = (-14.7, 44.2);
 /// Default half-width of a measured height, cm.
 pub const MEASURED_HEIGHT_CM: f64 = 1.0;
 /// Longest id of an arterial source.
@@ -79,7 +83,7 @@ pub struct Arterial {
     pub mean: Option<(Pressure, MeanBasis)>,
     /// Accuracy half-width, if given instead of the method's.
     pub accuracy: Option<Pressure>,
-    /// The unit it was entered in, for showing required readings the same way.
+    /// The unit it was entered in, for showing the values to defend the same way.
     pub unit: PressureUnit,
 }
 
@@ -214,6 +218,12 @@ pub struct Scene {
     pub organ_levels: BTreeMap<Organ, Landmark>,
     /// Targets.
     pub targets: Vec<Target>,
+    /// The operative site whose venous pressure is watched, and whether the
+    /// case chose it (else the vertex of a seated patient).
+    pub operative_site: Option<(Landmark, bool)>,
+    /// An external ventricular drain: its chamber's setting above the
+    /// tragus (as entered), and whether it is open.
+    pub drain: Option<(PressureEntry, bool)>,
     /// Baseline, when given.
     pub baseline: Option<Baseline>,
     /// Warnings found while checking the inputs.

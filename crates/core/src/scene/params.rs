@@ -198,10 +198,11 @@ impl Scene {
             Param::Density(fluid) => {
                 let r = self.densities.get(fluid);
                 format!(
-                    "{} density {:.0}-{:.0} kg/m³",
+                    "{} density {:.0}-{:.0} kg/m³ ({})",
                     fluid.label(),
                     to_kg_per_m3(r.low),
-                    to_kg_per_m3(r.high)
+                    to_kg_per_m3(r.high),
+                    r.range_source
                 )
             }
             Param::Place(owner) => format!("{} transducer height ±1 cm", self.owner_name(owner)),

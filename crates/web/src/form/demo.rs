@@ -139,7 +139,7 @@ impl Form {
         let Some(demo) = demo_form().filter(|_| self.demo) else {
             return;
         };
-        let blank = Form::from_case(&crate::session::blank_case());
+        let blank = Form::from_case(&super::blank_case());
         if self.height == demo.height {
             self.height = blank.height.clone();
         }
@@ -258,6 +258,6 @@ mod tests {
         assert_eq!(line.systolic.unwrap().amount, 100.0);
         assert_eq!(line.mean, None);
         assert!(case.assume.is_empty() && case.baseline.is_none());
-        assert_eq!(case.position, crate::session::blank_case().position);
+        assert_eq!(case.position, super::super::blank_case().position);
     }
 }

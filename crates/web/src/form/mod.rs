@@ -12,12 +12,12 @@ mod position;
 
 use std::collections::BTreeMap;
 
-use plumbline_core::case::Case;
+use plumbline_core::case::{ArterialSpec, Case};
 use plumbline_core::error::Errors;
-use plumbline_core::geometry::Posture;
+use plumbline_core::geometry::{PositionSpec, Posture};
 use plumbline_core::landmark::{Landmark, Side};
 use plumbline_core::organ::{Metric, Organ};
-use plumbline_core::reading::{Method, Quantity};
+use plumbline_core::reading::{Level, Method, Quantity};
 use plumbline_core::target::{self, TargetSpec};
 use plumbline_core::units::{LengthUnit, PressureUnit};
 use serde::{Deserialize, Serialize};
@@ -229,6 +229,23 @@ pub struct Form {
 
 /// The form's current revision: 1 added the baseline's boxes.
 const REVISION: u8 = 1;
+
+/// The case a new check starts from: flat on the back, one arterial line
+/// zeroed at the heart, every value still to be entered, default targets.
+pub fn blank_case() -> Case {
+    let mut case = Case::new();
+    case.position = Some(PositionSpec::new(Posture::Supine));
+    case.arterial = vec![ArterialSpec {
+        id: "arterial line".to_owned(),
+        method: Method::Transducer,
+        level: Level::At(Landmark::Heart),
+        systolic: None,
+        diastolic: None,
+        mean: None,
+        accuracy: None,
+    }];
+    case
+}
 
 fn default_targets() -> Vec<TargetForm> {
     target::defaults()
@@ -446,7 +463,6 @@ impl Form {
                 })
             }
             Slot::Source(i, SourcePart::Id) => Some(&mut self.sources.get_mut(i)?.id),
-            Slot::Target(i, TargetPart::Source) => Some(&mut self.targets.get_mut(i)?.source),
             Slot::Target(i, TargetPart::Bound) => Some(&mut self.targets.get_mut(i)?.percent),
             _ => None,
         }
@@ -486,7 +502,17 @@ impl Form {
                     self.readings.insert(q, reading);
                 }
             }
+            Edit::Text(Slot::Target(i, TargetPart::Source), text) => {
+                if let Some(t) = self.targets.get_mut(i) {
+                    t.source_edited(&text);
+                }
+            }
             Edit::Text(slot, text) => {
+                if let Slot::Target(i, TargetPart::Bound) = slot {
+                    if let Some(t) = self.targets.get_mut(i) {
+                        t.bound_edited();
+                    }
+                }
                 if let Some(p) = self.pressures_mut(slot) {
                     p.box_typed();
                 }
@@ -573,6 +599,7 @@ impl Form {
             }
             Edit::TargetKind(i, kind) => {
                 if let Some(t) = self.targets.get_mut(i) {
+                    t.bound_edited();
                     t.kind = kind;
                 }
             }
@@ -684,6 +711,37 @@ mod tests {
     }
 
     #[test]
+    fn a_target_the_core_refuses_is_kept_and_refused_in_the_cores_words() {
+        let mut case = Case::from_json(CASE_JSON).unwrap();
+        let mut two: TargetSpec = serde_json::from_str(
+            r#"{"organ": "whole_body", "metric": "inflow", "at_least": "60 mmHg", "at_least_percent_of_baseline": 80}"#,
+        )
+        .unwrap();
+        case.targets = Some(vec![two.clone()]);
+        let mut form = Form::from_case(&case);
+        assert_eq!(form.to_case().unwrap(), case, "nothing is dropped");
+        // The source typed into the row goes with it.
+        form.apply(Edit::Text(
+            Slot::Target(0, TargetPart::Source),
+            "unit".into(),
+        ));
+        two.citation = Some("unit".into());
+        assert_eq!(form.to_case().unwrap().targets, Some(vec![two]));
+        // A unit switch keeps both bounds; choosing a kind keeps one.
+        form.apply(Edit::PressureUnit(
+            Slot::Target(0, TargetPart::Bound),
+            PressureUnit::KPa,
+        ));
+        let kept = form.to_case().unwrap().targets.unwrap();
+        assert!(kept.first().unwrap().at_least_percent_of_baseline.is_some());
+        form.apply(Edit::TargetKind(0, BoundKind::PercentOfBaseline));
+        let chosen = form.to_case().unwrap().targets.unwrap();
+        let chosen = chosen.first().unwrap();
+        assert_eq!(chosen.at_least_percent_of_baseline, Some(80.0));
+        assert_eq!(chosen.at_least, None);
+    }
+
+    #[test]
     fn readings_and_assumptions_come_and_go() {
         let mut form = demo();
         form.apply(Edit::AddReading(Quantity::Icp));
@@ -698,7 +756,7 @@ mod tests {
     }
 
     fn blank() -> Form {
-        Form::from_case(&crate::session::blank_case())
+        Form::from_case(&blank_case())
     }
 
     #[test]

@@ -18,6 +18,7 @@ use crate::components::caution::Caution;
 use crate::components::concern_picker::ConcernPicker;
 use crate::components::demo_notice::DemoNotice;
 use crate::components::figure_view::FigureView;
+use crate::components::hazards_panel::HazardsPanel;
 use crate::components::heights_table::HeightsTable;
 use crate::components::not_checked::NotCheckedList;
 use crate::components::organ_card::OrganCard;
@@ -38,7 +39,6 @@ use crate::components::theme_toggle::ThemeToggle;
 use crate::components::verdicts::Verdicts;
 use crate::components::warnings_panel::WarningsPanel;
 use crate::form::Edit;
-use crate::notes::Notes;
 use crate::session::SessionAction;
 use crate::show::path_words;
 use crate::state::{Action, Handle};
@@ -65,7 +65,7 @@ fn fold(title: String, open: bool, body: Html) -> Html {
 pub fn CheckPage(props: &CheckPageProps) -> Html {
     let s = &props.state;
     let stale = s.is_stale();
-    let notes = Notes::of(s);
+    let notes = s.notes();
     let onedit = {
         let d = s.dispatcher();
         Callback::from(move |e: Edit| d.dispatch(Action::Edit(e)))
@@ -185,6 +185,8 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                                 }
                                 <ReadingsSummary checked={c.clone()} />
                                 { for c.report.organs.iter().map(|o| html! { <OrganCard organ={o.clone()} /> }) }
+                                <HazardsPanel venous_site={c.report.venous_site.clone()}
+                                    drain={c.report.drain.clone()} />
                                 <NotCheckedList organs={c.report.not_checked.clone()} />
                                 <WarningsPanel cross_checks={c.report.cross_checks.clone()}
                                     warnings={c.report.warnings.clone()} />

@@ -16,7 +16,6 @@
 pub mod entry;
 pub mod strip;
 pub mod trend;
-pub mod ward;
 pub mod when;
 
 use std::rc::Rc;
@@ -695,8 +694,8 @@ mod tests {
         let r = opened();
         assert!(r.file.is_none() && r.fit.is_empty());
         let a = r.analysis.as_ref().unwrap();
-        let cli = record::exposure_of(&record::import_into(&demo(), RECORD).unwrap()).unwrap();
-        assert_eq!(a.exposure, cli.0);
+        let cli = record::Recorded::import(&demo(), RECORD, &Default::default()).unwrap();
+        assert_eq!(a.exposure, cli.exposure());
         assert_eq!(
             a.trends.len(),
             3,
@@ -813,7 +812,7 @@ mod tests {
             demo().position,
             "the record starts in beach chair"
         );
-        let cli = record::exposure_of(&joined).unwrap().0;
+        let cli = record::Recorded::of_case(joined).unwrap().exposure();
         assert_eq!(r.analysis.as_ref().unwrap().exposure, cli);
         r.apply(RecordAction::RemoveChange(0), Some(&supine), false);
         assert!((cpp(&r) - before).abs() < 1e-9);
@@ -855,8 +854,9 @@ mod tests {
     fn a_record_riding_in_the_form_moves_out_of_it() {
         let mut case = demo();
         case.timeline = Some(
-            record::import_into(&demo(), RECORD)
+            record::Recorded::import(&demo(), RECORD, &Default::default())
                 .unwrap()
+                .case
                 .timeline
                 .unwrap(),
         );

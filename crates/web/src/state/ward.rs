@@ -6,9 +6,9 @@
 use plumbline_core::units::PressureUnit;
 use plumbline_core::usual::read_blood_pressure;
 
-use super::entry::{bp_readings, fits};
-use super::when::{When, WhenMode};
 use crate::form::{Edit, Slot, SourcePart};
+use crate::record::entry::{bp_readings, fits};
+use crate::record::when::{When, WhenMode};
 use crate::state::State;
 
 /// How the ward row's time box is read: empty is now, `+5` is minutes after

@@ -3,6 +3,14 @@
 //! Every change goes through [`State::reduce`]: the form takes the change,
 //! then the core checks the case again. A case that cannot be checked keeps
 //! the last good report on screen, marked stale, with every problem named.
+//!
+//! The reducer is pure: it computes the next state and touches nothing
+//! else. Saving on the device, the address's fragment, the clipboard and
+//! downloads run outside it (`app`, `persist`, the components). Changes to
+//! the whole check (the start, a new check, a link) live in `whole`.
+
+mod ward;
+mod whole;
 
 use std::collections::BTreeSet;
 use std::rc::Rc;
@@ -19,61 +27,13 @@ use yew::{Reducible, UseReducerDispatcher, UseReducerHandle};
 use crate::form::{Edit, Form};
 use crate::record::{Record, RecordAction};
 use crate::session::{Session, SessionAction};
+pub use crate::theme::Theme;
 
 /// What components hold to send actions to the state.
 pub type Dispatch = UseReducerDispatcher<State>;
 
 /// What panels hold: the state to read, and a way to change it.
 pub type Handle = UseReducerHandle<State>;
-
-/// The colour theme.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub enum Theme {
-    /// As the device prefers.
-    Device,
-    /// Light.
-    Light,
-    /// Dark.
-    Dark,
-}
-
-impl Theme {
-    /// The value of the page's `data-theme` attribute.
-    pub fn key(self) -> &'static str {
-        match self {
-            Theme::Device => "device",
-            Theme::Light => "light",
-            Theme::Dark => "dark",
-        }
-    }
-
-    /// The theme named by `key`, the device's for anything else.
-    pub fn from_key(key: &str) -> Theme {
-        match key {
-            "light" => Theme::Light,
-            "dark" => Theme::Dark,
-            _ => Theme::Device,
-        }
-    }
-
-    /// The next theme the toggle offers.
-    pub fn next(self) -> Theme {
-        match self {
-            Theme::Device => Theme::Dark,
-            Theme::Dark => Theme::Light,
-            Theme::Light => Theme::Device,
-        }
-    }
-
-    /// The theme in words, for the toggle.
-    pub fn label(self) -> &'static str {
-        match self {
-            Theme::Device => "device",
-            Theme::Light => "light",
-            Theme::Dark => "dark",
-        }
-    }
-}
 
 /// A completed check: the report and the case document it came from.
 #[derive(Debug, PartialEq)]
@@ -204,7 +164,18 @@ impl State {
     /// The messages to show beside the box at `path`: its errors, then its
     /// warnings from the last check.
     pub fn messages(&self, path: &str) -> Vec<Message> {
-        crate::notes::Notes::of(self).at(path)
+        self.notes().at(path)
+    }
+
+    /// The messages of the check on screen, by path: its problems and the
+    /// warnings of the last good check.
+    pub fn notes(&self) -> std::rc::Rc<crate::notes::Notes> {
+        let warnings = self
+            .checked
+            .as_ref()
+            .map(|c| c.report.warnings.clone())
+            .unwrap_or_default();
+        std::rc::Rc::new(crate::notes::Notes::new(self.errors.clone(), warnings))
     }
 }
 
@@ -217,17 +188,7 @@ pub fn not_checked_words(n: usize) -> String {
     }
 }
 
-/// A message shown beside a box.
-#[derive(Clone, Debug, PartialEq)]
-pub enum Message {
-    /// The box cannot be used as it is.
-    Error(String),
-    /// Worth a second look.
-    Warning(String),
-    /// Still to be entered: said calmly, not as a mistake, so a new check
-    /// opens without alarms.
-    Needed(String),
-}
+pub use crate::notes::Message;
 
 impl Checked {
     /// The landmarks worth a label in the picture: the heart reference, each
@@ -275,10 +236,7 @@ impl Reducible for State {
             }
             Action::AddReading { now_s } => next.add_reading(now_s),
         }
-        let next = Rc::new(next);
-        // A page closed before the next render still saves this (`persist`).
-        crate::persist::note(&next);
-        next
+        Rc::new(next)
     }
 }
 
@@ -358,12 +316,5 @@ mod tests {
         // CPP (with the demo's assumed ICP), MAP at brain level against its
         // floor and against baseline, and MAP at the heart against baseline.
         assert_eq!(checked.report.summary.missed_targets, 4);
-    }
-
-    #[test]
-    fn the_theme_cycles_through_three() {
-        let t = Theme::Device;
-        assert_eq!(t.next().next().next(), t);
-        assert_eq!(Theme::from_key(Theme::Dark.key()), Theme::Dark);
     }
 }
