@@ -240,6 +240,12 @@ test('a ward record of five cuff readings on a phone: no scrolling between them'
   await until(async () => (await list.getByRole('row').count()) === readings.length, 'one reading out');
   assert.equal(await list.getByLabel(/^Reading at 08:10/).inputValue(), '88/50');
 
+  // The print carries the readings, as text, and the chart.
+  await page.emulateMedia({ media: 'print' });
+  assert.ok(await list.isVisible() && await list.locator('.print-only').first().isVisible(), 'the readings print');
+  assert.ok(await map.getByRole('img').isVisible(), 'the chart prints');
+  await page.emulateMedia({ media: 'screen' });
+
   // The shared link carries the record.
   await page.getByRole('button', { name: /^Share/ }).click();
   const dialog = page.getByRole('dialog', { name: 'Share this check' });

@@ -10,6 +10,7 @@ pub mod demo_notice;
 pub mod device_level;
 pub mod field_messages;
 pub mod figure_view;
+pub mod fold;
 pub mod hazards_panel;
 pub mod heights_table;
 pub mod length_input;

@@ -17,7 +17,7 @@ use crate::components::record_entry::RecordEntry;
 use crate::components::record_exports::RecordExports;
 use crate::components::record_file::RecordFile;
 use crate::components::record_positions::RecordPositions;
-use crate::components::record_readings::RecordReadings;
+use crate::components::record_readings::{RecordReadings, SHOWN};
 use crate::components::record_rules::RecordRules;
 use crate::components::record_trend::RecordTrend;
 use crate::components::ward_entry::WardEntry;
@@ -112,7 +112,7 @@ pub fn RecordPanel(props: &RecordPanelProps) -> Html {
         .get(r.ward.source)
         .cloned()
         .unwrap_or_default();
-    let rows = reading_rows(&r.spec, &ward_id);
+    let (total, rows) = reading_rows(&r.spec, &ward_id, SHOWN);
     let adds: Vec<String> = props
         .checked
         .as_ref()
@@ -137,7 +137,7 @@ pub fn RecordPanel(props: &RecordPanelProps) -> Html {
             <p class="record-summary">{ summary }</p>
             <p class="sr-only" role="status">{ r.note.clone().unwrap_or_default() }</p>
             <WardEntry sources={props.sources.clone()} ward={r.ward.clone()}
-                problem={r.entry.clone().map(AttrValue::from)} onchange={onrecord.clone()} onadd={onadd}
+                problem={r.ward.problem.clone().map(AttrValue::from)} onchange={onrecord.clone()} onadd={onadd}
                 samples={r.samples()} />
             <details class="more record-more" open={r.file.is_some()}>
                 <summary>{ "Open a monitor export, or take every reading on screen as a sample" }</summary>
@@ -191,7 +191,7 @@ pub fn RecordPanel(props: &RecordPanelProps) -> Html {
                         </details>
                     </div>
                 }
-                <RecordReadings id={ward_id.clone()} rows={rows} clock_start={clock}
+                <RecordReadings id={ward_id.clone()} rows={rows} total={total} clock_start={clock}
                     onchange={onrecord.clone()} />
                 <RecordPositions start={r.start.clone()} changes={r.spec.positions.clone()}
                     dispatch={props.dispatch.clone()} />

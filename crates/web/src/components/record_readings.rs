@@ -11,15 +11,17 @@ use crate::record::entry::ReadingRow;
 use crate::record::RecordAction;
 
 /// The most readings listed: a ward record's worth.
-const SHOWN: usize = 24;
+pub const SHOWN: usize = 24;
 
 /// Props of [`RecordReadings`].
 #[derive(Properties, PartialEq)]
 pub struct RecordReadingsProps {
     /// The source's id.
     pub id: AttrValue,
-    /// Its readings, in time order.
+    /// Its latest readings, in time order.
     pub rows: Vec<ReadingRow>,
+    /// How many readings it has in all.
+    pub total: usize,
     /// The record's clock start, seconds after midnight.
     pub clock_start: Option<f64>,
     /// Changes to the record.
@@ -32,23 +34,25 @@ pub fn RecordReadings(props: &RecordReadingsProps) -> Html {
     if props.rows.is_empty() {
         return html! {};
     }
-    let skipped = props.rows.len().saturating_sub(SHOWN);
+    let skipped = props.total.saturating_sub(props.rows.len());
     let when = |t: f64| match props.clock_start {
         Some(c) => format!("{} ({})", clock_words(c + t), elapsed_words(t)),
         None => elapsed_words(t),
     };
     html! {
-        <section class="record-readings" aria-labelledby="h-record-readings">
+        // A monitor's stream is in the chart; the list prints for a ward's few.
+        <section class={classes!("record-readings", (skipped > 0).then_some("truncated"))}
+            aria-labelledby="h-record-readings">
             <h3 id="h-record-readings">{ format!("Readings of {}", props.id) }</h3>
             if skipped > 0 {
-                <p class="hint">{ format!("The latest {SHOWN} of {} readings; the samples download holds them all.", props.rows.len()) }</p>
+                <p class="hint">{ format!("The latest {} of {} readings; the samples download holds them all.", props.rows.len(), props.total) }</p>
             }
             <table>
                 <thead>
                     <tr><th scope="col">{ "Time" }</th><th scope="col">{ "Blood pressure, mmHg" }</th><th scope="col"><span class="sr-only">{ "Remove" }</span></th></tr>
                 </thead>
                 <tbody>
-                    { for props.rows.iter().skip(skipped).map(|row| {
+                    { for props.rows.iter().map(|row| {
                         let (id, t_s) = (props.id.to_string(), row.t_s);
                         let onedit = {
                             let id = id.clone();

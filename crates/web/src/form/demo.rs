@@ -9,9 +9,14 @@ use plumbline_core::demo::CASE_JSON;
 use super::{ArmChoice, Form, PositionForm, SourceForm};
 use crate::fields::PressureText;
 
+thread_local! {
+    /// The demo case's boxes, read once: the screen asks on every render.
+    static DEMO: Option<Form> = Case::from_json(CASE_JSON).ok().map(|c| Form::from_case(&c));
+}
+
 /// The demo case's boxes, as the screen first showed them.
 fn demo_form() -> Option<Form> {
-    Case::from_json(CASE_JSON).ok().map(|c| Form::from_case(&c))
+    DEMO.with(Clone::clone)
 }
 
 /// A box still as the demo had it, and not empty.

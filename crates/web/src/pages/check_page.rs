@@ -18,6 +18,7 @@ use crate::components::caution::Caution;
 use crate::components::concern_picker::ConcernPicker;
 use crate::components::demo_notice::DemoNotice;
 use crate::components::figure_view::FigureView;
+use crate::components::fold::Fold;
 use crate::components::hazards_panel::HazardsPanel;
 use crate::components::heights_table::HeightsTable;
 use crate::components::not_checked::NotCheckedList;
@@ -51,13 +52,8 @@ pub struct CheckPageProps {
 }
 
 /// A folded section of the inputs, one tap away.
-fn fold(title: String, open: bool, body: Html) -> Html {
-    html! {
-        <details class="more fold" {open}>
-            <summary>{ title }</summary>
-            { body }
-        </details>
-    }
+fn fold(title: String, problem: bool, body: Html) -> Html {
+    html! { <Fold title={title} problem={problem}>{ body }</Fold> }
 }
 
 /// The check screen.

@@ -94,9 +94,11 @@ pub struct ReadingRow {
     pub text: String,
 }
 
-/// The times at which `id`'s channels have samples, each with its values
-/// written as one text (numbers as recorded, never recomputed).
-pub fn reading_rows(spec: &TimelineSpec, id: &str) -> Vec<ReadingRow> {
+/// The latest `last` times at which `id`'s channels have samples, each with
+/// its values written as one text (numbers as recorded, never recomputed),
+/// and how many times there are in all. Only the rows shown are written,
+/// so an eight-hour monitor record costs a merge, not 28,800 texts.
+pub fn reading_rows(spec: &TimelineSpec, id: &str, last: usize) -> (usize, Vec<ReadingRow>) {
     let channels: Vec<Option<&ChannelSpec>> = PARTS
         .iter()
         .map(|c| {
@@ -111,18 +113,21 @@ pub fn reading_rows(spec: &TimelineSpec, id: &str) -> Vec<ReadingRow> {
         .collect();
     times.sort_by(f64::total_cmp);
     times.dedup();
+    let total = times.len();
     let at = |c: Option<&ChannelSpec>, t: f64| {
         let c = c?;
-        let k = c.t_s.iter().position(|x| *x == t)?;
+        let k = c.t_s.partition_point(|x| *x < t);
+        (c.t_s.get(k) == Some(&t)).then_some(())?;
         let v = number_text(*c.values.get(k)?);
         Some(match c.unit {
             PressureUnit::MmHg => v,
             u => format!("{v} {}", u.symbol()),
         })
     };
-    times
-        .into_iter()
-        .map(|t| {
+    let rows = times
+        .iter()
+        .skip(total.saturating_sub(last))
+        .map(|&t| {
             let get = |i: usize| at(channels.get(i).copied().flatten(), t);
             let text = match (get(0), get(1), get(2)) {
                 (Some(s), Some(d), Some(m)) => format!("{s}/{d} ({m})"),
@@ -135,7 +140,8 @@ pub fn reading_rows(spec: &TimelineSpec, id: &str) -> Vec<ReadingRow> {
             };
             ReadingRow { t_s: t, text }
         })
-        .collect()
+        .collect();
+    (total, rows)
 }
 
 /// Replaces `id`'s readings at `t_s` with `bp` (a part it lacks is taken
@@ -376,7 +382,9 @@ mod tests {
         assert!(fits(&spec, "other", 600.0, &with_mean).is_ok());
         let second = bp_readings(&spec, "L arm cuff", &bp("90/50 (63)"));
         add_sample(&mut spec, 300.0, &second).unwrap();
-        let rows = reading_rows(&spec, "L arm cuff");
+        let (total, rows) = reading_rows(&spec, "L arm cuff", 24);
+        assert_eq!(total, 2);
+        assert_eq!(reading_rows(&spec, "L arm cuff", 1).1.len(), 1);
         assert_eq!(
             rows,
             vec![
@@ -391,14 +399,17 @@ mod tests {
             ]
         );
         set_reading(&mut spec, "L arm cuff", 0.0, Some(&bp("110/70 (83)")));
-        assert_eq!(reading_rows(&spec, "L arm cuff")[0].text, "110/70 (83)");
+        assert_eq!(
+            reading_rows(&spec, "L arm cuff", 24).1[0].text,
+            "110/70 (83)"
+        );
         set_reading(&mut spec, "L arm cuff", 300.0, Some(&bp("95/55")));
-        assert_eq!(reading_rows(&spec, "L arm cuff")[1].text, "95/55");
+        assert_eq!(reading_rows(&spec, "L arm cuff", 24).1[1].text, "95/55");
         set_reading(&mut spec, "L arm cuff", 0.0, None);
-        let rows = reading_rows(&spec, "L arm cuff");
-        assert_eq!(rows.len(), 1);
+        let (total, _) = reading_rows(&spec, "L arm cuff", 24);
+        assert_eq!(total, 1);
         assert_eq!(spec.channels.len(), 2, "the mean channel, now empty, goes");
-        assert!(reading_rows(&spec, "other").is_empty());
+        assert_eq!(reading_rows(&spec, "other", 24), (0, Vec::new()));
     }
 
     #[test]

@@ -162,7 +162,7 @@ pub struct FileProblems {
 }
 
 /// The record on screen.
-#[derive(Clone, Debug, Default, PartialEq)]
+#[derive(Clone, Debug, Default)]
 pub struct Record {
     /// Samples, clock start and position changes; shared, so the state's
     /// copy on every change never copies them. Its rules are kept apart in
@@ -198,6 +198,36 @@ pub struct Record {
     pub generation: u64,
 }
 
+/// Shared parts are the same when they are one (the screen's common case,
+/// one pointer compared), else when their contents are equal: comparing an
+/// eight-hour record's props on every render must not walk its samples.
+fn same<T: PartialEq>(a: &Rc<T>, b: &Rc<T>) -> bool {
+    Rc::ptr_eq(a, b) || **a == **b
+}
+
+impl PartialEq for Record {
+    fn eq(&self, other: &Record) -> bool {
+        let analysis = match (&self.analysis, &other.analysis) {
+            (Some(a), Some(b)) => same(a, b),
+            (a, b) => a.is_none() && b.is_none(),
+        };
+        same(&self.spec, &other.spec)
+            && analysis
+            && self.start == other.start
+            && self.rules == other.rules
+            && self.rule_texts == other.rule_texts
+            && self.when == other.when
+            && self.opened == other.opened
+            && self.file == other.file
+            && self.entry == other.entry
+            && self.ward == other.ward
+            && self.note == other.note
+            && self.fit == other.fit
+            && self.pending == other.pending
+            && self.generation == other.generation
+    }
+}
+
 /// The ward's entry row as typed: which source, when, and the blood
 /// pressure (`100/60` or `100/60 (74)`).
 #[derive(Clone, Debug, Default, PartialEq)]
@@ -209,6 +239,8 @@ pub struct Ward {
     pub time: String,
     /// The blood pressure as typed.
     pub bp: String,
+    /// Why the row's last reading, or a change in the list, was refused.
+    pub problem: Option<String>,
 }
 
 /// Every change to the record.
@@ -401,14 +433,19 @@ impl Record {
     fn analysed(&self, scene: &Scene, timeline: &Timeline) -> Analysis {
         let exposure = record::analyze(scene, timeline, None);
         let changes: Vec<f64> = self.spec.positions.iter().map(|p| p.at_s).collect();
-        let mut readings: Vec<f64> = self
-            .spec
-            .channels
-            .iter()
-            .flat_map(|c| c.t_s.iter().copied())
-            .collect();
-        readings.sort_by(f64::total_cmp);
-        readings.dedup();
+        // The readings' times, for their marks; a monitor's stream has too
+        // many to mark, and is not gathered.
+        let mut readings: Vec<f64> = Vec::new();
+        if self.samples() <= 3 * trend::MARKED {
+            readings.extend(
+                self.spec
+                    .channels
+                    .iter()
+                    .flat_map(|c| c.t_s.iter().copied()),
+            );
+            readings.sort_by(f64::total_cmp);
+            readings.dedup();
+        }
         let trends = record::series(scene, timeline)
             .iter()
             .map(|s| {
@@ -504,6 +541,7 @@ impl Record {
                     when: self.when.clone(),
                     ward: Ward {
                         bp: String::new(),
+                        problem: None,
                         ..self.ward.clone()
                     },
                     ..Record::default()
@@ -512,11 +550,11 @@ impl Record {
             RecordAction::WardSource(i) => self.ward.source = i,
             RecordAction::WardTime(text) => {
                 self.ward.time = text;
-                self.entry = None;
+                self.ward.problem = None;
             }
             RecordAction::WardBp(text) => {
                 self.ward.bp = text;
-                self.entry = None;
+                self.ward.problem = None;
             }
             RecordAction::EditReading { id, t_s, text } => {
                 let read = read_blood_pressure(&text, PressureUnit::MmHg)
@@ -524,11 +562,11 @@ impl Record {
                 match read {
                     Ok(bp) => {
                         entry::set_reading(Rc::make_mut(&mut self.spec), &id, t_s, Some(&bp));
-                        self.entry = None;
+                        self.ward.problem = None;
                         self.note = Some(format!("Reading at {} changed.", elapsed_words(t_s)));
                         self.analyse(case);
                     }
-                    Err(why) => self.entry = Some(why),
+                    Err(why) => self.ward.problem = Some(why),
                 }
             }
             RecordAction::RemoveReading { id, t_s } => {
@@ -639,7 +677,7 @@ impl Record {
     ) -> Result<(), String> {
         let mut spec = (*self.spec).clone();
         entry::add_sample(&mut spec, t_s, readings)?;
-        self.entry = None;
+        self.ward.problem = None;
         if self.is_empty() {
             self.start = case.position.clone();
             spec.clock_start = clock_start.map(clock_words);

@@ -29,7 +29,7 @@ pub const TOP: f64 = 8.0;
 /// Its bottom edge (room for the time labels).
 pub const BOTTOM: f64 = HEIGHT - 30.0;
 /// The most readings marked one by one: more is a monitor's stream.
-const MARKED: usize = 120;
+pub const MARKED: usize = 120;
 
 /// Time steps for the x axis, seconds: the first giving at most six ticks.
 const TIME_STEPS: [f64; 12] = [

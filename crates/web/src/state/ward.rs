@@ -35,7 +35,7 @@ impl State {
     pub(crate) fn add_reading(&mut self, now_s: f64) {
         let i = self.record.ward.source;
         let Some(id) = self.form.sources.get(i).map(|s| s.id.trim().to_owned()) else {
-            self.record.entry =
+            self.record.ward.problem =
                 Some("add a blood pressure source first (a cuff or a line)".to_owned());
             return;
         };
@@ -43,7 +43,7 @@ impl State {
         let bp = match read_blood_pressure(&text, PressureUnit::MmHg) {
             Ok(bp) => bp,
             Err(why) => {
-                self.record.entry = Some(why);
+                self.record.ward.problem = Some(why);
                 return;
             }
         };
@@ -51,12 +51,12 @@ impl State {
         let at = match when(&r.ward.time).read(r.clock_start_s(), r.last_s(), now_s) {
             Ok(at) => at,
             Err(why) => {
-                self.record.entry = Some(why);
+                self.record.ward.problem = Some(why);
                 return;
             }
         };
         if let Err(why) = fits(&r.spec, &id, at.t_s, &bp) {
-            self.record.entry = Some(why);
+            self.record.ward.problem = Some(why);
             return;
         }
         if r.last_s().is_none_or(|last| at.t_s >= last) {
@@ -67,7 +67,7 @@ impl State {
         let case = match self.checked.as_ref().filter(|_| !self.is_stale()) {
             Some(c) => c.case.clone(),
             None => {
-                self.record.entry = Some(
+                self.record.ward.problem = Some(
                     "the reading is on screen; fix the marked entries, then add it again"
                         .to_owned(),
                 );
@@ -83,7 +83,7 @@ impl State {
                 self.record.ward.bp.clear();
                 self.record.ward.time.clear();
             }
-            Err(why) => self.record.entry = Some(why),
+            Err(why) => self.record.ward.problem = Some(why),
         }
     }
 }
@@ -123,19 +123,20 @@ mod tests {
         assert!(s.is_stale(), "a new check has no blood pressure yet");
         let eight = 8.0 * 3600.0;
         add(&mut s, "", "100/60", eight);
-        assert_eq!(s.record.entry, None);
+        assert_eq!(s.record.ward.problem, None);
         assert!(!s.is_stale());
         assert_eq!(s.record.spec.clock_start.as_deref(), Some("08:00:00"));
         add(&mut s, "08:15", "90/50 (63)", eight + 1200.0);
         assert!(s
             .record
-            .entry
+            .ward
+            .problem
             .as_deref()
             .unwrap()
             .contains("without the device's mean"));
         add(&mut s, "08:15", "90/50", eight + 1200.0);
         add(&mut s, "08:05", "95/55", eight + 1200.0);
-        let rows = crate::record::entry::reading_rows(&s.record.spec, "L arm cuff");
+        let (_, rows) = crate::record::entry::reading_rows(&s.record.spec, "L arm cuff", 24);
         let times: Vec<f64> = rows.iter().map(|r| r.t_s).collect();
         assert_eq!(times, vec![0.0, 300.0, 900.0]);
         // The latest by time stays on screen, not the last typed.
@@ -145,7 +146,8 @@ mod tests {
         add(&mut s, "", "90/", eight + 1500.0);
         assert!(s
             .record
-            .entry
+            .ward
+            .problem
             .as_deref()
             .unwrap()
             .contains("not a blood pressure"));
