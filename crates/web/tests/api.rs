@@ -83,14 +83,8 @@ fn every_problem_comes_back_with_its_field() {
     assert!(answer.get("report").is_none());
     let core = Case::from_json(text).unwrap_err();
     let first = core.iter().next().unwrap();
-    assert_eq!(
-        answer["errors"][0]["field"],
-        Value::from(first.field())
-    );
-    assert_eq!(
-        answer["errors"][0]["message"],
-        Value::from(first.message())
-    );
+    assert_eq!(answer["errors"][0]["field"], Value::from(first.field()));
+    assert_eq!(answer["errors"][0]["message"], Value::from(first.message()));
 
     // A case the core's scene refuses (diastolic above systolic) names it too.
     let text = r#"{"format": "plumbline-case", "version": 1,

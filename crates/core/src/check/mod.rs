@@ -144,10 +144,7 @@ pub fn check(scene: &Scene) -> Report {
         });
     }
 
-    let venous_site = hazards::venous_site(&ctx).map(|(site, warning)| {
-        warnings.extend(warning);
-        site
-    });
+    let venous_site = hazards::venous_site(&ctx);
     Report {
         format: RESULT_FORMAT,
         version: VERSION,
