@@ -37,9 +37,9 @@ impl Notes {
         let mut out: Vec<Message> = self
             .errors
             .for_field(path)
-            .map(|e| match e.kind {
-                ErrorKind::Missing { .. } => Message::Needed(e.kind.to_string()),
-                _ => Message::Error(e.kind.to_string()),
+            .map(|e| match e.kind() {
+                ErrorKind::Missing { .. } => Message::Needed(e.kind().to_string()),
+                _ => Message::Error(e.kind().to_string()),
             })
             .collect();
         out.extend(

@@ -1,7 +1,7 @@
-//! Why the form could not be checked: what is still to be entered, said
-//! calmly (a new check is not a mistake), and every real problem, in red,
-//! each linked to its box, with a plain statement that the results are
-//! stale.
+//! Why the form could not be checked: every real problem, in red, each
+//! linked to its box, with a plain statement that the results are stale.
+//! What is merely still to be entered is not a problem: the pinned answer
+//! says it calmly in the answer's place.
 
 use plumbline_core::error::{Error, ErrorKind, Errors};
 use yew::prelude::*;
@@ -19,53 +19,44 @@ pub struct ProblemsProps {
 }
 
 fn item(e: &Error) -> Html {
-    let words = path_words(&e.field);
+    let words = path_words(e.field());
     let text = if words.is_empty() {
-        e.kind.to_string()
+        e.kind().to_string()
     } else {
-        format!("{words}: {}", e.kind)
+        format!("{words}: {}", e.kind())
     };
-    if e.field.is_empty() {
+    if e.field().is_empty() {
         html! { <li>{ text }</li> }
     } else {
-        html! { <li><a href={format!("#{}", dom_id(&e.field))}>{ text }</a></li> }
+        html! { <li><a href={format!("#{}", dom_id(e.field()))}>{ text }</a></li> }
     }
 }
 
-/// The problem banner; nothing when the check went through.
+/// The problem banner; nothing when nothing is wrong.
 #[component]
 pub fn Problems(props: &ProblemsProps) -> Html {
-    let (needed, wrong): (Vec<&Error>, Vec<&Error>) = props
+    let wrong: Vec<&Error> = props
         .errors
         .iter()
-        .partition(|e| matches!(e.kind, ErrorKind::Missing { .. }));
-    if wrong.is_empty() && needed.is_empty() {
+        .filter(|e| !matches!(e.kind(), ErrorKind::Missing { .. }))
+        .collect();
+    if wrong.is_empty() {
         return html! {};
     }
-    let stale = if props.has_results {
-        "The results are STALE: they are from the last complete entry, not from what is typed now."
-    } else {
-        "No results until then."
-    };
     html! {
-        <>
-            if !wrong.is_empty() {
-                <section class="problems" aria-labelledby="h-problems">
-                    <h2 id="h-problems">
-                        <span class="msg-mark" aria-hidden="true">{ "✕" }</span>
-                        { not_checked_words(wrong.len()) }
-                    </h2>
-                    <p>{ stale }</p>
-                    <ul>{ for wrong.iter().map(|e| item(e)) }</ul>
-                </section>
-            }
-            if !needed.is_empty() {
-                <section class="needed" aria-labelledby="h-needed">
-                    <h2 id="h-needed">{ "To check, enter" }</h2>
-                    if wrong.is_empty() { <p>{ stale }</p> }
-                    <ul>{ for needed.iter().map(|e| item(e)) }</ul>
-                </section>
-            }
-        </>
+        <section class="problems" aria-labelledby="h-problems">
+            <h2 id="h-problems">
+                <span class="msg-mark" aria-hidden="true">{ "✕" }</span>
+                { not_checked_words(wrong.len()) }
+            </h2>
+            <p>
+                if props.has_results {
+                    { "The results are STALE: they are from the last complete entry, not from what is typed now." }
+                } else {
+                    { "No results until these are fixed." }
+                }
+            </p>
+            <ul>{ for wrong.iter().map(|e| item(e)) }</ul>
+        </section>
     }
 }

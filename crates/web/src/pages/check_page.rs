@@ -96,18 +96,18 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
     // A fold opens by itself for a real problem inside, never for what is
     // merely still to enter (a new check opens with every fold closed).
     let has = |prefix: &str| {
-        s.errors
-            .iter()
-            .any(|e| e.field.starts_with(prefix) && !matches!(e.kind, ErrorKind::Missing { .. }))
+        s.errors.iter().any(|e| {
+            e.field().starts_with(prefix) && !matches!(e.kind(), ErrorKind::Missing { .. })
+        })
     };
     // What is still to enter, said in the answer's place until it can be given.
     let needed: Vec<String> = s
         .errors
         .iter()
-        .filter(|e| matches!(e.kind, ErrorKind::Missing { .. }))
-        .map(|e| match path_words(&e.field) {
-            w if w.is_empty() => e.kind.to_string(),
-            w => format!("{w}: {}", e.kind),
+        .filter(|e| matches!(e.kind(), ErrorKind::Missing { .. }))
+        .map(|e| match path_words(e.field()) {
+            w if w.is_empty() => e.kind().to_string(),
+            w => format!("{w}: {}", e.kind()),
         })
         .collect();
     // The record's part of the answer: the organs of concern's targets.
