@@ -24,6 +24,7 @@ pub mod position_panel;
 pub mod pressure_input;
 pub mod problems;
 pub mod qr_code;
+pub mod quantity_select;
 pub mod quick_position;
 pub mod quick_pressures;
 pub mod reading_card;

@@ -6,12 +6,12 @@ use std::rc::Rc;
 
 use plumbline_core::reading::Quantity;
 use plumbline_core::usual::{method_for, unit_for};
-use web_sys::HtmlSelectElement;
 use yew::prelude::*;
 
 use crate::components::field_messages::FieldMessages;
 use crate::components::plain_input::PlainInput;
 use crate::components::pressure_input::PressureInput;
+use crate::components::quantity_select::QuantitySelect;
 use crate::components::site_select::SiteSelect;
 use crate::fields::PressureText;
 use crate::form::{Edit, ReadingForm, ReadingPart, Slot, SourceForm, SourcePart};
@@ -36,14 +36,9 @@ pub struct QuickPressuresProps {
 pub fn QuickPressures(props: &QuickPressuresProps) -> Html {
     let first = props.readings.first().map_or(Quantity::Icp, |(q, _)| *q);
     let chosen = use_state(|| first);
-    let onchoose = {
+    let onpick = {
         let chosen = chosen.clone();
-        Callback::from(move |e: Event| {
-            let key = e.target_unchecked_into::<HtmlSelectElement>().value();
-            if let Some(q) = Quantity::ALL.into_iter().find(|q| q.key() == key) {
-                chosen.set(q);
-            }
-        })
+        Callback::from(move |q: Quantity| chosen.set(q))
     };
     let q = *chosen;
     let reading = props.readings.iter().find(|(k, _)| *k == q).map(|(_, r)| r);
@@ -75,14 +70,7 @@ pub fn QuickPressures(props: &QuickPressuresProps) -> Html {
                 <button type="button" class="add" onclick={onadd}>{ "Add a blood pressure" }</button>
             }
             <div class="row">
-                <div class="field">
-                    <label for="f-quick-quantity">{ "Other pressure" }</label>
-                    <select id="f-quick-quantity" onchange={onchoose}>
-                        { for Quantity::ALL.into_iter().map(|k| html! {
-                            <option value={k.key()} selected={k == q}>{ k.label() }</option>
-                        }) }
-                    </select>
-                </div>
+                <QuantitySelect id="f-quick-quantity" label="Other pressure" chosen={q} {onpick} />
                 <PressureInput label={q.label()} path={value_path.clone()}
                     slot={Slot::Reading(q, ReadingPart::Value)} field={value}
                     messages={props.notes.at(&value_path)} placeholder="if measured"

@@ -5,10 +5,10 @@ use std::collections::BTreeMap;
 use std::rc::Rc;
 
 use plumbline_core::reading::Quantity;
-use web_sys::HtmlSelectElement;
 use yew::prelude::*;
 
 use crate::components::assumed_card::AssumedCard;
+use crate::components::quantity_select::QuantitySelect;
 use crate::components::reading_card::ReadingCard;
 use crate::form::{AssumedForm, Edit, ReadingForm};
 use crate::notes::Notes;
@@ -30,14 +30,9 @@ pub struct ReadingsPanelProps {
 #[component]
 pub fn ReadingsPanel(props: &ReadingsPanelProps) -> Html {
     let chosen = use_state(|| Quantity::Icp);
-    let onchoose = {
+    let onpick = {
         let chosen = chosen.clone();
-        Callback::from(move |e: Event| {
-            let key = e.target_unchecked_into::<HtmlSelectElement>().value();
-            if let Some(q) = Quantity::ALL.into_iter().find(|q| q.key() == key) {
-                chosen.set(q);
-            }
-        })
+        Callback::from(move |q: Quantity| chosen.set(q))
     };
     let add = |edit: fn(Quantity) -> Edit| {
         let q = *chosen;
@@ -60,14 +55,7 @@ pub fn ReadingsPanel(props: &ReadingsPanelProps) -> Html {
                     onedit={props.onedit.clone()} />
             }) }
             <div class="adder">
-                <div class="field">
-                    <label for="f-add-quantity">{ "Pressure to add" }</label>
-                    <select id="f-add-quantity" onchange={onchoose}>
-                        { for Quantity::ALL.into_iter().map(|q| html! {
-                            <option value={q.key()} selected={q == *chosen}>{ q.label() }</option>
-                        }) }
-                    </select>
-                </div>
+                <QuantitySelect id="f-add-quantity" label="Pressure to add" chosen={*chosen} {onpick} />
                 <button type="button" class="add" onclick={add(Edit::AddReading)} disabled={has_reading}>
                     { "Add measured" }
                 </button>

@@ -110,6 +110,10 @@ mod tests {
         s
     }
 
+    fn refused(s: &State) -> &str {
+        s.record.ward.problem.as_deref().unwrap_or_default()
+    }
+
     fn add(s: &mut State, time: &str, bp: &str, now_s: f64) {
         s.record
             .apply(RecordAction::WardTime(time.into()), None, false);
@@ -127,13 +131,7 @@ mod tests {
         assert!(!s.is_stale());
         assert_eq!(s.record.spec.clock_start.as_deref(), Some("08:00:00"));
         add(&mut s, "08:15", "90/50 (63)", eight + 1200.0);
-        assert!(s
-            .record
-            .ward
-            .problem
-            .as_deref()
-            .unwrap()
-            .contains("without the device's mean"));
+        assert!(refused(&s).contains("without the device's mean"));
         add(&mut s, "08:15", "90/50", eight + 1200.0);
         add(&mut s, "08:05", "95/55", eight + 1200.0);
         let (_, rows) = crate::record::entry::reading_rows(&s.record.spec, "L arm cuff", 24);
@@ -144,13 +142,7 @@ mod tests {
         assert!(s.record.analysis.is_some());
         assert!(s.record.ward.bp.is_empty(), "the row is ready for the next");
         add(&mut s, "", "90/", eight + 1500.0);
-        assert!(s
-            .record
-            .ward
-            .problem
-            .as_deref()
-            .unwrap()
-            .contains("not a blood pressure"));
+        assert!(refused(&s).contains("not a blood pressure"));
         assert_eq!(s.record.ward.bp, "90/", "a refused reading stays as typed");
         assert_eq!(when("+5").mode, WhenMode::Elapsed);
     }
