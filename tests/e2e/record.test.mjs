@@ -51,13 +51,14 @@ function expectedFor(t) {
   const m = t.words.match(/for ([\d.]+) min of ([\d.]+) min observed \((\d+)%\), area (-?\d+) mmHg·min, time-weighted average (-?[\d.]+) mmHg, longest episode ([\d.]+) min(?:; (?:lowest|highest) (-?\d+) mmHg at (\d+:\d\d:\d\d))?/);
   assert.ok(m, `the core's words: ${t.words}`);
   const side = t.at_least ? 'below' : 'above';
+  // Labelled so that no exposure figure reads as a pressure.
   const want = [
-    `Time ${side}${m[1]} min of ${m[2]} min observed (${m[3]}%)`,
-    `Area ${side}${m[4]} mmHg·min`,
-    `Time-weighted average${m[5]} mmHg`,
+    `Time ${side} target${m[1]} min of ${m[2]} min observed (${m[3]}%)`,
+    `Area ${side} target${m[4]} mmHg·min`,
+    `Average depth ${side} target, time-weighted${m[5]} mmHg`,
     `Longest episode${m[6]} min`,
   ];
-  if (m[7] !== undefined) want.push(`${t.at_least ? 'Lowest' : 'Highest'}${m[7]} mmHg at ${m[8]}`);
+  if (m[7] !== undefined) want.push(`${t.at_least ? 'Lowest value' : 'Highest value'}${m[7]} mmHg at ${m[8]}`);
   for (const flag of t.words.match(/uses an ASSUMED [^;]+/g) ?? []) want.push(flag.replace(/^uses/, 'Uses'));
   return want;
 }
@@ -229,6 +230,14 @@ test('an eight-hour record at 1 Hz imports, analyses and charts without freezing
   await until(async () => (await mean.inputValue()) === '74', 'the typed mean');
   const typingTask = await page.evaluate(() => window.longest);
   await matchesCli(page, exposure);
+  // Eight hours do not fit a link: the dialog says so and offers the file.
+  await page.getByRole('button', { name: /^Share/ }).click();
+  const dialog = page.getByRole('dialog', { name: 'Share this check' });
+  await dialog.getByText(/The record over time is NOT in this link/).waitFor();
+  await dialog.getByRole('button', { name: 'Download case with record (JSON)' }).waitFor();
+  const link = await dialog.getByLabel('Link to this check').inputValue();
+  assert.ok(link.split('#')[1].length <= 16 * 1024, 'the link itself stays within the cap');
+  await dialog.getByRole('button', { name: 'Close' }).click();
   t.diagnostic(`eight hours: shown ${shown} ms after choosing the file; longest task ${importTask.toFixed(0)} ms; `
     + `8 keystrokes ${typing} ms, longest task while typing ${typingTask.toFixed(0)} ms`);
   assert.deepEqual(problems, [], 'no script errors');

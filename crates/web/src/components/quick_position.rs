@@ -87,7 +87,7 @@ pub fn QuickPosition(props: &QuickPositionProps) -> Html {
             }
             <LengthInput label="Body height" path="patient.height" slot={Slot::Height}
                 field={props.height.clone()} messages={props.notes.at("patient.height")}
-                placeholder="e.g. 170" onedit={props.onedit.clone()} />
+                placeholder="not given: assumed" onedit={props.onedit.clone()} />
         </fieldset>
     }
 }

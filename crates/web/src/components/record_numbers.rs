@@ -53,17 +53,17 @@ pub fn RecordNumbers(props: &RecordNumbersProps) -> Html {
             </p>
             <dl class="numbers">
                 <div>
-                    <dt>{ format!("Time {side}") }</dt>
+                    <dt>{ format!("Time {side} target") }</dt>
                     <dd class="x-outside">
                         { format!("{:.1} min of {:.1} min observed ({:.0}%)", t.outside_min, t.observed_min, t.outside_percent) }
                     </dd>
                 </div>
                 <div>
-                    <dt>{ format!("Area {side}") }</dt>
+                    <dt>{ format!("Area {side} target") }</dt>
                     <dd class="x-area">{ format!("{:.0} mmHg·min", t.area_mmhg_min) }</dd>
                 </div>
                 <div>
-                    <dt>{ "Time-weighted average" }</dt>
+                    <dt>{ format!("Average depth {side} target, time-weighted") }</dt>
                     <dd class="x-twa">{ format!("{:.1} mmHg", t.twa_mmhg) }</dd>
                 </div>
                 <div>
@@ -72,7 +72,7 @@ pub fn RecordNumbers(props: &RecordNumbersProps) -> Html {
                 </div>
                 if let Some(w) = worst {
                     <div>
-                        <dt>{ if t.at_least { "Lowest" } else { "Highest" } }</dt>
+                        <dt>{ if t.at_least { "Lowest value" } else { "Highest value" } }</dt>
                         <dd class="x-worst">{ w }</dd>
                     </div>
                 }
