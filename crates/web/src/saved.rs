@@ -19,6 +19,7 @@ use serde_json::Value;
 
 use crate::form::Form;
 use crate::record::Record;
+use crate::session::Opening;
 use crate::storage::Kind;
 use crate::theme::Theme;
 
@@ -28,6 +29,42 @@ pub const CHECK: Kind = Kind {
     version: 1,
     what: "a check",
 };
+
+/// The note of what the app is opening: `plumbline-opening`, version 1.
+pub const OPENING: Kind = Kind {
+    format: "plumbline-opening",
+    version: 1,
+    what: "a note of what was opening",
+};
+
+#[derive(Serialize)]
+struct OpeningFields<'a> {
+    #[serde(skip_serializing_if = "Option::is_none")]
+    link: Option<&'a str>,
+}
+
+/// The note kept while `opening` is opened.
+pub fn encode_opening(opening: &Opening) -> String {
+    OPENING.seal(&OpeningFields {
+        link: match opening {
+            Opening::Saved => None,
+            Opening::Link(fragment) => Some(fragment),
+        },
+    })
+}
+
+/// What a note says was opening; a damaged note counts as the saved check
+/// (the cautious reading: it is set aside, kept for download).
+pub fn decode_opening(text: &str) -> Opening {
+    OPENING
+        .open(text)
+        .ok()
+        .and_then(|mut fields| match fields.remove("link") {
+            Some(Value::String(link)) => Some(Opening::Link(link)),
+            _ => None,
+        })
+        .unwrap_or(Opening::Saved)
+}
 
 /// A check read back from the device.
 #[derive(Clone, Debug, PartialEq)]
@@ -127,7 +164,7 @@ pub fn decode_record(text: &str) -> Result<SavedRecord, String> {
             timeline: case.timeline,
             start: case.position,
         })
-        .map_err(|e| format!("the record over time cannot be read ({})", first_words(&e)))
+        .map_err(|e| first_words(&e))
 }
 
 /// The first problem of a list, for a notice.
@@ -252,6 +289,18 @@ mod tests {
             "its boxes cannot be read",
         );
         assert!(decode_record("{").is_err());
+    }
+
+    #[test]
+    fn the_opening_note_names_the_link_or_the_saved_check() {
+        for opening in [Opening::Saved, Opening::Link("#p1.abc\"<".into())] {
+            assert_eq!(decode_opening(&encode_opening(&opening)), opening);
+        }
+        assert_eq!(decode_opening("{"), Opening::Saved);
+        assert_eq!(
+            decode_opening(r#"{"format":"plumbline-opening","version":1,"link":3}"#),
+            Opening::Saved
+        );
     }
 
     #[test]
