@@ -22,7 +22,6 @@
 //! this window's check is kept under keys of its own (held back), so
 //! nothing typed in either window is lost.
 
-use std::hash::{DefaultHasher, Hash, Hasher};
 use std::rc::Rc;
 
 use plumbline_core::case::RulesSpec;
@@ -85,10 +84,16 @@ fn put(key: &str, text: Option<&str>) -> bool {
     }
 }
 
+/// A 64-bit FNV-1a hash of a saved text (`None`: no text), to tell one
+/// text from another cheaply; not for security (smaller in the download
+/// than the standard library's hasher).
 fn hash(text: Option<&str>) -> u64 {
-    let mut h = DefaultHasher::new();
-    text.hash(&mut h);
-    h.finish()
+    let Some(text) = text else {
+        return 0;
+    };
+    text.bytes().fold(0xcbf2_9ce4_8422_2325, |h, b| {
+        (h ^ u64::from(b)).wrapping_mul(0x0000_0100_0000_01b3)
+    })
 }
 
 /// What identifies a record's content: its shared samples, rules and start.
