@@ -140,31 +140,20 @@ fn record(file: &str, case_file: &str, options: RecordOptions) -> ExitCode {
         Ok(case) => case,
         Err(errors) => return bad(case_file, &errors),
     };
-    let mut case = match record::import_into(&case, &csv) {
-        Ok(case) => case,
+    let recorded = match record::Recorded::import(&case, &csv, &options.rules) {
+        Ok(recorded) => recorded,
         Err(errors) => return bad(file, &errors),
     };
-    if let Some(timeline) = case.timeline.as_mut() {
-        let rules = &mut timeline.rules;
-        let given = options.rules;
-        rules.hold_max_s = given.hold_max_s.or(rules.hold_max_s);
-        rules.gap_max_s = given.gap_max_s.or(rules.gap_max_s);
-        rules.min_episode_s = given.min_episode_s.or(rules.min_episode_s);
-    }
-    let (exposure, series) = match record::exposure_of(&case) {
-        Ok(result) => result,
-        Err(errors) => return bad("the record's rules", &errors),
-    };
     if let Some(path) = &options.write_case {
-        if let Err(e) = std::fs::write(path, case.to_json()) {
+        if let Err(e) = std::fs::write(path, recorded.case.to_json()) {
             eprintln!("plumbline: cannot write {}: {e}", path.display());
             return ExitCode::from(2);
         }
     }
     if options.series {
-        print!("{series}");
+        print!("{}", recorded.series_csv());
     } else if options.json {
-        match serde_json::to_string_pretty(&exposure) {
+        match serde_json::to_string_pretty(&recorded.exposure()) {
             Ok(text) => println!("{text}"),
             Err(e) => {
                 eprintln!("plumbline: cannot write the exposure as JSON: {e}");
@@ -172,7 +161,7 @@ fn record(file: &str, case_file: &str, options: RecordOptions) -> ExitCode {
             }
         }
     } else {
-        print!("{}", table::render_exposure(&exposure));
+        print!("{}", table::render_exposure(&recorded.exposure()));
     }
     ExitCode::SUCCESS
 }

@@ -8,22 +8,11 @@ use std::fmt::Write;
 use plumbline_core::record::{elapsed_words, Exposure};
 use plumbline_core::report::{Report, Sweep};
 use plumbline_core::target::Status;
+use plumbline_core::text::{signed_cm, whole_mmhg as rounded};
 
-fn rounded(v: f64) -> String {
-    format!("{:.0}", v.round() + 0.0)
-}
-
-fn signed_cm(v: f64) -> String {
-    format!("{v:+.1}")
-}
-
-fn status_mark(status: Option<Status>) -> &'static str {
-    match status {
-        Some(Status::Meets) => "[ok]",
-        Some(Status::Below) => "[LOW]",
-        Some(Status::Above) => "[HIGH]",
-        None => "[--]",
-    }
+/// A status as a bracketed mark for a terminal: the core's badge.
+fn mark(status: Status) -> String {
+    format!("[{}]", status.badge())
 }
 
 /// The report as text.
@@ -38,6 +27,20 @@ fn write_report(out: &mut String, r: &Report) -> std::fmt::Result {
     writeln!(out, "PLUMBLINE perfusion check")?;
     if let Some(position) = &r.position {
         writeln!(out, "Position: {position}")?;
+    }
+    writeln!(out)?;
+    writeln!(out, "{} {}", mark(r.summary.status), r.summary.headline)?;
+    for line in &r.summary.organs {
+        writeln!(
+            out,
+            "  {} {}: {}",
+            mark(line.status),
+            line.label,
+            line.words
+        )?;
+        if let Some(defend) = &line.defend {
+            writeln!(out, "      defend {defend}")?;
+        }
     }
     writeln!(out)?;
 
@@ -92,7 +95,7 @@ fn write_report(out: &mut String, r: &Report) -> std::fmt::Result {
             }
         }
         for c in &r.cross_checks {
-            let mark = if c.agree { "[ok]" } else { "[CHECK]" };
+            let mark = if c.agree { "[AGREE]" } else { "[CHECK]" };
             writeln!(out, "  {mark} {}", c.words)?;
         }
         writeln!(out)?;
@@ -101,10 +104,11 @@ fn write_report(out: &mut String, r: &Report) -> std::fmt::Result {
     for organ in &r.organs {
         writeln!(
             out,
-            "{}: checked at the {} ({} cm)",
+            "{}: checked at the {} ({} cm) {}",
             organ.label,
             organ.level_label,
-            signed_cm(organ.level_height_cm)
+            signed_cm(organ.level_height_cm),
+            mark(organ.verdict.status)
         )?;
         for m in &organ.metrics {
             let largest = m
@@ -124,6 +128,9 @@ fn write_report(out: &mut String, r: &Report) -> std::fmt::Result {
                 rounded(m.lower_mmhg),
                 rounded(m.upper_mmhg)
             )?;
+            if let Some(b) = &m.beside {
+                writeln!(out, "      {}", b.words)?;
+            }
             if let Some(g) = &m.grade {
                 writeln!(out, "      {}", g.words)?;
             }
@@ -131,20 +138,17 @@ fn write_report(out: &mut String, r: &Report) -> std::fmt::Result {
                 writeln!(out, "      uses an ASSUMED {}", q.label())?;
             }
             for t in &m.targets {
-                writeln!(
-                    out,
-                    "      {} {}: {}",
-                    status_mark(t.status),
-                    t.target,
-                    t.words
-                )?;
-                for need in &t.required {
+                writeln!(out, "      {} {}: {}", mark(t.status), t.target, t.words)?;
+                for need in &t.defend {
                     writeln!(out, "           to meet it now: {}", need.words)?;
                 }
             }
         }
         for miss in &organ.missing {
             writeln!(out, "  {}: needs {}", miss.label, miss.needs.join("; "))?;
+            for t in &miss.targets {
+                writeln!(out, "      {} {t}", mark(Status::NotEvaluated))?;
+            }
         }
         writeln!(out)?;
     }
@@ -159,6 +163,17 @@ fn write_report(out: &mut String, r: &Report) -> std::fmt::Result {
 
     if !r.sweeps.is_empty() {
         write_sweeps(out, &r.sweeps)?;
+    }
+
+    if let Some(site) = &r.venous_site {
+        writeln!(out, "Operative site")?;
+        writeln!(out, "  {}", site.words)?;
+        writeln!(out)?;
+    }
+    if let Some(drain) = &r.drain {
+        writeln!(out, "Ventricular drain")?;
+        writeln!(out, "  {}", drain.words)?;
+        writeln!(out)?;
     }
 
     if !r.warnings.is_empty() {
@@ -237,12 +252,11 @@ fn write_exposure(out: &mut String, e: &Exposure) -> std::fmt::Result {
     writeln!(out, "Definitions: {}", e.definitions)?;
     writeln!(out)?;
     for t in &e.targets {
-        let mark = if t.outside_min > 0.0 { "[OUT]" } else { "[ok]" };
-        writeln!(out, "  {mark} {}", t.target)?;
+        writeln!(out, "  {} {}", mark(t.status), t.target)?;
         writeln!(out, "        {}", t.words)?;
     }
     for n in &e.not_analysed {
-        writeln!(out, "  [--] {}: {}", n.target, n.why)?;
+        writeln!(out, "  {} {}: {}", mark(n.status), n.target, n.why)?;
     }
     writeln!(out)?;
     writeln!(out, "{}", plumbline_core::report::CAUTION)

@@ -13,6 +13,7 @@ use serde::{Deserialize, Deserializer, Serialize, Serializer};
 use crate::error::{Error, ErrorKind, Errors};
 use crate::geometry::{PositionSpec, Segment};
 use crate::landmark::Landmark;
+use crate::limits;
 use crate::organ::Organ;
 use crate::reading::{Level, MeanRule, Method, Quantity};
 use crate::target::TargetSpec;
@@ -22,10 +23,8 @@ use crate::units::{DensityEntry, LengthEntry, PressureEntry, PressureUnit};
 pub const FORMAT: &str = "plumbline-case";
 /// The newest document version this build reads and writes.
 pub const VERSION: u32 = 1;
-/// The largest document accepted, in bytes. A case is a few kilobytes, an
-/// eight-hour record at 1 Hz a few megabytes; the cap keeps a hostile file
-/// from costing memory.
-pub const MAX_BYTES: usize = 16 * 1024 * 1024;
+/// The largest document accepted, in bytes (`limits::MAX_DOCUMENT_BYTES`).
+pub const MAX_BYTES: usize = crate::limits::MAX_DOCUMENT_BYTES;
 
 /// One check, as written by the clinician.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -68,12 +67,24 @@ pub struct Case {
     /// when the reading is absent, and flagged in every result that uses them.
     #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
     pub assume: BTreeMap<Quantity, AssumedSpec>,
+    /// The organs of concern: the summary judges these. Every organ with a
+    /// result when left out.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub concern: Vec<Organ>,
     /// The landmark an organ is checked at, for organs with a choice.
     #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
     pub organ_levels: BTreeMap<Organ, Landmark>,
     /// The targets; the defaults when left out.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub targets: Option<Vec<TargetSpec>>,
+    /// The operative site, for the venous pressure there (air entrainment
+    /// when it is below atmospheric); the vertex in a seated position when
+    /// left out.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub operative_site: Option<Landmark>,
+    /// An external ventricular drain and where its chamber is set.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub ventricular_drain: Option<DrainSpec>,
     /// The patient's baseline arterial pressure, for relative targets.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub baseline: Option<BaselineSpec>,
@@ -296,6 +307,27 @@ pub struct AssumedSpec {
     pub level: Option<Level>,
 }
 
+/// An external ventricular drain: the drip chamber's height above the
+/// tragus as set on its scale, and whether it is open.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct DrainSpec {
+    /// The chamber's height above the tragus as marked on the drain's
+    /// scale, in the current position (`"15 cmH2O"`).
+    pub set_at: PressureEntry,
+    /// Whether the drain is open to drainage; clamped when false.
+    #[serde(default = "open_by_default", skip_serializing_if = "is_open")]
+    pub open: bool,
+}
+
+fn open_by_default() -> bool {
+    true
+}
+
+fn is_open(open: &bool) -> bool {
+    *open
+}
+
 /// The patient's baseline arterial pressure, and where it was taken.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
@@ -333,6 +365,9 @@ impl Case {
             primary_arterial: None,
             readings: BTreeMap::new(),
             assume: BTreeMap::new(),
+            concern: Vec::new(),
+            operative_site: None,
+            ventricular_drain: None,
             organ_levels: BTreeMap::new(),
             targets: None,
             baseline: None,
@@ -344,8 +379,9 @@ impl Case {
     ///
     /// # Errors
     /// Text that is not JSON (with line and column), a document of another
-    /// format or a newer version, or a shape problem named by its path
-    /// (`arterial[0].systolic: '80' has no unit ...`).
+    /// format or a newer version, a shape problem named by its path
+    /// (`arterial[0].systolic: '80' has no unit ...`), or a cap on cost met
+    /// (`limits`: bytes and nesting first, then counts and texts).
     ///
     /// # Example
     /// ```
@@ -356,18 +392,8 @@ impl Case {
     /// assert!(bad.unwrap_err().to_string().starts_with("arterial"));
     /// ```
     pub fn from_json(text: &str) -> Result<Case, Errors> {
-        if text.len() > MAX_BYTES {
-            return Err(Error::new(
-                "",
-                ErrorKind::Shape {
-                    message: format!(
-                        "the document is {} bytes; a case is at most {MAX_BYTES}",
-                        text.len()
-                    ),
-                },
-            )
-            .into());
-        }
+        limits::check_bytes("", text.len())?;
+        limits::check_nesting(text)?;
         let value: serde_json::Value = serde_json::from_str(text).map_err(|e| {
             Error::new(
                 "",
@@ -384,20 +410,21 @@ impl Case {
     /// Reads a case from a JSON value (as the JavaScript face receives it).
     ///
     /// # Errors
-    /// As [`Case::from_json`], without the syntax step.
+    /// As [`Case::from_json`], without the syntax, byte and nesting steps.
     pub fn from_value(value: serde_json::Value) -> Result<Case, Errors> {
         check_header(&value)?;
-        serde_path_to_error::deserialize(value).map_err(|e| {
+        let case: Case = serde_path_to_error::deserialize(value).map_err(|e| {
             let path = e.path().to_string();
             let field = if path == "." { String::new() } else { path };
-            Error::new(
+            Errors::from(Error::new(
                 field,
                 ErrorKind::Shape {
                     message: e.into_inner().to_string(),
                 },
-            )
-            .into()
-        })
+            ))
+        })?;
+        limits::check_case(&case)?;
+        Ok(case)
     }
 
     /// A copy without its record over time, made without copying the record.
@@ -415,6 +442,9 @@ impl Case {
             primary_arterial: self.primary_arterial.clone(),
             readings: self.readings.clone(),
             assume: self.assume.clone(),
+            concern: self.concern.clone(),
+            operative_site: self.operative_site,
+            ventricular_drain: self.ventricular_drain.clone(),
             organ_levels: self.organ_levels.clone(),
             targets: self.targets.clone(),
             baseline: self.baseline.clone(),
@@ -533,6 +563,37 @@ mod tests {
     #[test]
     fn oversized_documents_are_refused() {
         let text = " ".repeat(MAX_BYTES + 1);
-        assert!(Case::from_json(&text).is_err());
+        assert_eq!(
+            Case::from_json(&text).unwrap_err().to_string(),
+            "16777217 bytes; at most 16777216 are accepted"
+        );
+    }
+
+    #[test]
+    fn deep_nesting_is_refused_before_parsing() {
+        // Deeper than serde_json's own limit (128), which would say
+        // "recursion limit exceeded" as a syntax error.
+        let text = format!(
+            r#"{{"format": "plumbline-case", "version": 1, "patient": {}{}}}"#,
+            "[".repeat(200),
+            "]".repeat(200)
+        );
+        assert_eq!(
+            Case::from_json(&text).unwrap_err().to_string(),
+            "201 levels of nesting; at most 32 are accepted"
+        );
+    }
+
+    #[test]
+    fn caps_are_checked_once_the_shape_is_read() {
+        let source = r#"{"id": "a", "method": "cuff", "level": "heart", "mean": "70 mmHg"}"#;
+        let text = format!(
+            r#"{{"format": "plumbline-case", "version": 1, "arterial": [{}]}}"#,
+            vec![source; 130].join(", ")
+        );
+        assert_eq!(
+            Case::from_json(&text).unwrap_err().to_string(),
+            "arterial: 130 arterial sources; at most 64 are accepted"
+        );
     }
 }

@@ -87,6 +87,16 @@ pub enum ErrorKind {
         /// Why it does not apply.
         message: String,
     },
+    /// More of something than one input may hold (sources, samples,
+    /// bytes): a cap on cost, far above bedside use (`limits`).
+    OverLimit {
+        /// How many were found.
+        found: usize,
+        /// Of what, plural: `arterial sources`.
+        what: String,
+        /// The most accepted.
+        max: usize,
+    },
 }
 
 impl Error {
@@ -164,6 +174,9 @@ impl fmt::Display for ErrorKind {
             ErrorKind::Duplicate { name } => write!(f, "the name '{name}' is used more than once"),
             ErrorKind::UnknownReference { name } => {
                 write!(f, "'{name}' does not name anything in this case")
+            }
+            ErrorKind::OverLimit { found, what, max } => {
+                write!(f, "{found} {what}; at most {max} are accepted")
             }
         }
     }

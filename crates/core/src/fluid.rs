@@ -48,15 +48,22 @@ pub struct DensityRange {
     pub high: Density,
     /// Where the value comes from, in words.
     pub source: String,
+    /// Where the range comes from, in words, for wherever it is shown.
+    pub range_source: &'static str,
 }
 
 impl DensityRange {
-    fn from_kg_per_m3(nominal: f64, low: f64, high: f64, source: &str) -> Self {
+    fn from_kg_per_m3(
+        (nominal, low, high): (f64, f64, f64),
+        source: &str,
+        range_source: &'static str,
+    ) -> Self {
         DensityRange {
             nominal: kg_per_m3(nominal),
             low: kg_per_m3(low),
             high: kg_per_m3(high),
             source: source.to_owned(),
+            range_source,
         }
     }
 
@@ -64,7 +71,11 @@ impl DensityRange {
     /// a measured density is trusted over a population value.
     pub fn entered(value: Density) -> Self {
         let v = to_kg_per_m3(value);
-        DensityRange::from_kg_per_m3(v, v - 5.0, v + 5.0, "entered in the case")
+        DensityRange::from_kg_per_m3(
+            (v, v - 5.0, v + 5.0),
+            "entered in the case",
+            "±5 kg/m³ around the value entered",
+        )
     }
 }
 
@@ -99,23 +110,24 @@ impl Default for Densities {
     fn default() -> Self {
         Densities {
             blood: DensityRange::from_kg_per_m3(
-                BLOOD_KG_PER_M3,
-                BLOOD_RANGE_KG_PER_M3.0,
-                BLOOD_RANGE_KG_PER_M3.1,
+                (
+                    BLOOD_KG_PER_M3,
+                    BLOOD_RANGE_KG_PER_M3.0,
+                    BLOOD_RANGE_KG_PER_M3.1,
+                ),
                 "whole blood at 37 °C, specific gravity 1.0506 (Trudnowski and Rico 1974); \
                  range 1043-1057 kg/m³ (Hinghofer-Szalkay and Greenleaf 1987)",
+                "the published whole-blood range, Hinghofer-Szalkay and Greenleaf 1987",
             ),
             csf: DensityRange::from_kg_per_m3(
-                1006.5,
-                1003.0,
-                1010.0,
+                (1006.5, 1003.0, 1010.0),
                 "CSF, about 1005-1008 kg/m³ (from memory)",
+                "from memory",
             ),
             saline: DensityRange::from_kg_per_m3(
-                1005.0,
-                1000.0,
-                1008.0,
+                (1005.0, 1000.0, 1008.0),
                 "0.9% saline near body temperature (from memory)",
+                "from memory",
             ),
         }
     }
@@ -160,14 +172,13 @@ pub fn blood_from_haematocrit(haematocrit: f64) -> Option<DensityRange> {
     }
     let rho = PLASMA_KG_PER_M3 + haematocrit * (RED_CELL_KG_PER_M3 - PLASMA_KG_PER_M3);
     Some(DensityRange::from_kg_per_m3(
-        rho,
-        rho - 4.0,
-        rho + 4.0,
+        (rho, rho - 4.0, rho + 4.0),
         &format!(
             "whole blood from haematocrit {:.0}%: plasma 1020.5 kg/m³ (Trudnowski and Rico 1974) \
              plus the cell fraction times (1093 - 1020.5) kg/m³ (cell density from memory)",
             haematocrit * 100.0
         ),
+        "±4 kg/m³ around the haematocrit estimate (assumed)",
     ))
 }
 

@@ -19,6 +19,12 @@ pub enum Landmark {
     /// Monro; the reference for ICP and for cerebral perfusion. Taken on the
     /// midline, so in side-lying it is the centre of the head.
     Tragus,
+    /// The cranial vertex, the top of the head: the highest point of the
+    /// brain in an upright head, where its perfusion pressure is lowest.
+    Vertex,
+    /// The posterior fossa (the back of the head, below the inion): a
+    /// sitting craniotomy's operative site.
+    PosteriorFossa,
     /// The left eye (globe centre).
     EyeLeft,
     /// The right eye (globe centre).
@@ -29,6 +35,10 @@ pub enum Landmark {
     CordThoracic,
     /// The lumbar enlargement and conus (about L1).
     CordLumbar,
+    /// The left shoulder joint: a shoulder operation's site.
+    ShoulderLeft,
+    /// The right shoulder joint.
+    ShoulderRight,
     /// The mid-axillary line at the iliac crest: the zero for bladder IAP.
     IliacCrest,
     /// The left kidney (hilum).
@@ -69,12 +79,16 @@ pub enum Side {
 
 impl Landmark {
     /// Every landmark, in head-to-foot order.
-    pub const ALL: [Landmark; 20] = [
+    pub const ALL: [Landmark; 24] = [
         Landmark::Heart,
+        Landmark::Vertex,
         Landmark::Tragus,
+        Landmark::PosteriorFossa,
         Landmark::EyeLeft,
         Landmark::EyeRight,
         Landmark::CordCervical,
+        Landmark::ShoulderLeft,
+        Landmark::ShoulderRight,
         Landmark::CordThoracic,
         Landmark::CordLumbar,
         Landmark::IliacCrest,
@@ -97,6 +111,10 @@ impl Landmark {
         match self {
             Landmark::Heart => "heart",
             Landmark::Tragus => "tragus",
+            Landmark::Vertex => "vertex",
+            Landmark::PosteriorFossa => "posterior_fossa",
+            Landmark::ShoulderLeft => "shoulder_left",
+            Landmark::ShoulderRight => "shoulder_right",
             Landmark::EyeLeft => "eye_left",
             Landmark::EyeRight => "eye_right",
             Landmark::CordCervical => "cord_cervical",
@@ -123,6 +141,10 @@ impl Landmark {
         match self {
             Landmark::Heart => "heart reference (phlebostatic axis)",
             Landmark::Tragus => "tragus (ear level)",
+            Landmark::Vertex => "vertex (top of the head)",
+            Landmark::PosteriorFossa => "posterior fossa (back of the head)",
+            Landmark::ShoulderLeft => "left shoulder",
+            Landmark::ShoulderRight => "right shoulder",
             Landmark::EyeLeft => "left eye",
             Landmark::EyeRight => "right eye",
             Landmark::CordCervical => "cervical cord (C5)",
@@ -148,12 +170,12 @@ impl Landmark {
     pub fn side(self) -> Option<Side> {
         use Landmark::*;
         match self {
-            EyeLeft | KidneyLeft | UpperArmLeft | WristLeft | ThighLeft | CalfLeft | AnkleLeft => {
-                Some(Side::Left)
-            }
-            EyeRight | KidneyRight | UpperArmRight | WristRight | ThighRight | CalfRight
-            | AnkleRight => Some(Side::Right),
-            Heart | Tragus | CordCervical | CordThoracic | CordLumbar | IliacCrest => None,
+            EyeLeft | ShoulderLeft | KidneyLeft | UpperArmLeft | WristLeft | ThighLeft
+            | CalfLeft | AnkleLeft => Some(Side::Left),
+            EyeRight | ShoulderRight | KidneyRight | UpperArmRight | WristRight | ThighRight
+            | CalfRight | AnkleRight => Some(Side::Right),
+            Heart | Vertex | Tragus | PosteriorFossa | CordCervical | CordThoracic | CordLumbar
+            | IliacCrest => None,
         }
     }
 

@@ -115,7 +115,7 @@ impl Organ {
                 AnkleLeft,
                 AnkleRight,
             ],
-            Organ::Brain => &[Tragus],
+            Organ::Brain => &[Tragus, Vertex],
             Organ::Abdomen => &[IliacCrest],
             Organ::Heart | Organ::HeartCpr | Organ::WholeBody => &[Heart],
         }
@@ -140,6 +140,8 @@ impl Organ {
             (Organ::Limb, Metric::Perfusion) => "ΔP (diastolic − compartment)",
             (Organ::WholeBody, Metric::Perfusion) => "MAP − CVP",
             (Organ::WholeBody, Metric::Inflow) => "MAP at the heart",
+            (Organ::Brain, Metric::Inflow) => "MAP at brain level",
+            (Organ::Cord, Metric::Inflow) => "MAP at cord level",
             (_, Metric::Inflow) => "MAP at organ level",
             (_, Metric::Surrounding) => "surrounding pressure",
         }

@@ -13,6 +13,13 @@ use crate::fluid::Fluid;
 use crate::landmark::Landmark;
 use crate::units::{mmhg, to_mmhg, LengthEntry, Pressure};
 
+/// The spread of one cuff reading, mmHg: a device at the limits of the
+/// validation standard (ISO 81060-2: mean difference within 5 mmHg *and*
+/// its SD within 8 mmHg) has a root-mean-square error of √(5² + 8²) for a
+/// single reading. The standard validates systolic and diastolic; the
+/// device's oscillometric mean is given the same spread (docs/DESIGN.md).
+pub const CUFF_PER_READING_MMHG: f64 = 9.433_981_132_056_603;
+
 /// How a pressure was measured; each method has a default accuracy.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
@@ -59,7 +66,7 @@ impl Method {
     /// method.
     pub fn accuracy(self, value: Pressure) -> Pressure {
         match self {
-            Method::Cuff => mmhg(5.0),
+            Method::Cuff => mmhg(CUFF_PER_READING_MMHG),
             Method::Transducer => mmhg(4.0_f64.max(0.04 * to_mmhg(value).abs())),
             Method::Probe | Method::DrainScale | Method::Tonometer => mmhg(2.0),
             Method::Needle => mmhg(5.0),
@@ -70,8 +77,8 @@ impl Method {
     pub fn accuracy_source(self) -> &'static str {
         match self {
             Method::Cuff => {
-                "ISO 81060-2: validated cuffs have a mean error within 5 mmHg \
-                 (individual readings scatter more, SD up to 8 mmHg)"
+                "one reading of a cuff validated to ISO 81060-2 (mean error within 5 mmHg and SD \
+                 within 8 mmHg): root mean square error up to √(5² + 8²) = 9.4 mmHg"
             }
             Method::Transducer => "IEC 60601-2-34: ±4 mmHg or ±4% (from memory)",
             Method::Probe => "typical tip-sensor specification ±2 mmHg (from memory)",

@@ -7,6 +7,7 @@
 use serde::Serialize;
 
 use crate::error::Warning;
+use crate::evaluate::Frame;
 use crate::geometry::Figure;
 use crate::landmark::Landmark;
 use crate::organ::{Metric, Organ};
@@ -35,6 +36,8 @@ pub struct Report {
     pub heights: Vec<HeightRow>,
     /// The arterial sources as read.
     pub arterial: Vec<SourceRow>,
+    /// The verdict first: each organ of concern judged, in one headline.
+    pub summary: Summary,
     /// The organs that could be checked.
     pub organs: Vec<OrganReport>,
     /// The organs that could not, and what each needs.
@@ -43,6 +46,13 @@ pub struct Report {
     pub cross_checks: Vec<CrossCheck>,
     /// Required site readings across backrest angles.
     pub sweeps: Vec<Sweep>,
+    /// The patient's height as used: stated, or assumed when none was given.
+    pub patient_height: Option<PatientHeight>,
+    /// The venous pressure at the operative site.
+    pub venous_site: Option<VenousSite>,
+    /// Where an external ventricular drain drains, now and at other
+    /// backrest angles.
+    pub drain: Option<DrainReport>,
     /// The body in its position, for drawing.
     pub figure: Option<Figure>,
     /// Things worth a second look.
@@ -116,6 +126,9 @@ pub struct SourceRow {
     pub accuracy_mmhg: f64,
     /// Where that accuracy comes from.
     pub accuracy_source: String,
+    /// What the model assumes about this source that a reader should know,
+    /// with its size (the saline in a transducer's tubing).
+    pub note: Option<String>,
     /// Whether this source drives the organ results.
     pub primary: bool,
 }
@@ -127,16 +140,70 @@ pub struct OrganReport {
     pub organ: Organ,
     /// It in words.
     pub label: &'static str,
-    /// The landmark it is checked at.
-    pub level: Landmark,
-    /// That landmark in words.
-    pub level_label: &'static str,
-    /// That landmark's height above the heart, cm.
+    /// The landmark it is checked at; `None` at an explicit height (a
+    /// compartment pressure taken at a measured height).
+    pub level: Option<Landmark>,
+    /// Where it is checked, in words.
+    pub level_label: String,
+    /// That level's height above the heart, cm.
     pub level_height_cm: f64,
+    /// How the organ stands against its targets, decided here once.
+    pub verdict: OrganVerdict,
     /// The metrics computed.
     pub metrics: Vec<MetricReport>,
     /// The metrics that could not be computed, and why.
     pub missing: Vec<MissingMetric>,
+}
+
+/// One organ's verdict against its targets. An organ with no evaluated
+/// target is never "met": it is not evaluated, and the reason says why.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct OrganVerdict {
+    /// Met, below, above, or not evaluated.
+    pub status: Status,
+    /// The verdict in one sentence, with the deciding value and target.
+    pub words: String,
+    /// The deciding metric's value with its range, when there is one:
+    /// `MAP at organ level 47 mmHg (41–53)`.
+    pub value: Option<String>,
+    /// The reading to defend now: the first site that can bring the first
+    /// missed target back (or, when all are met, hold the first one).
+    pub defend: Option<Defend>,
+    /// Targets that could not be evaluated, each with what it needs.
+    pub not_evaluated: Vec<String>,
+}
+
+/// The answer first: every organ of concern with its verdict, and one
+/// headline that never calls an organ fine when it could not be judged.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Summary {
+    /// Below or above if any organ of concern misses a target; not
+    /// evaluated if any could not be judged; met only when every one is.
+    pub status: Status,
+    /// The verdict in one or two short sentences.
+    pub headline: String,
+    /// How many targets are missed, over every organ.
+    pub missed_targets: usize,
+    /// The organs of concern (the case's, or every organ with a result),
+    /// in the order results are shown.
+    pub organs: Vec<OrganLine>,
+}
+
+/// One organ of concern in the summary.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct OrganLine {
+    /// Which organ.
+    pub organ: Organ,
+    /// It in words.
+    pub label: &'static str,
+    /// Its verdict.
+    pub status: Status,
+    /// The verdict in one sentence.
+    pub words: String,
+    /// The deciding value with its range, when there is one.
+    pub value: Option<String>,
+    /// The reading to defend now, in words.
+    pub defend: Option<String>,
 }
 
 /// A metric that could not be computed.
@@ -148,6 +215,8 @@ pub struct MissingMetric {
     pub label: &'static str,
     /// What it needs.
     pub needs: Vec<String>,
+    /// The targets on it, in words, that could therefore not be evaluated.
+    pub targets: Vec<String>,
 }
 
 /// One computed metric with its range, derivation and targets.
@@ -163,6 +232,16 @@ pub struct MetricReport {
     pub lower_mmhg: f64,
     /// The high end, mmHg.
     pub upper_mmhg: f64,
+    /// The value and range as shown: `47 mmHg (41–53)`.
+    pub display: String,
+    /// Where its pressures are referred to: the organ's height, or the
+    /// zeros of its published definition.
+    pub frame: Frame,
+    /// That zero in words, with its source: what its targets assume.
+    pub zero: &'static str,
+    /// The same metric in the other frame, when the two differ by half a
+    /// mmHg or more (the head above the heart, a drain not at the cord).
+    pub beside: Option<Beside>,
     /// The input that moves it most.
     pub largest_contributor: Option<String>,
     /// Each input's effect, largest first.
@@ -179,6 +258,20 @@ pub struct MetricReport {
     pub targets: Vec<TargetReport>,
     /// The IAH grade, for IAP.
     pub grade: Option<IahGrade>,
+}
+
+/// A metric in the frame it is not judged in, shown beside the judged
+/// value.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Beside {
+    /// The other frame.
+    pub frame: Frame,
+    /// What the value is, in words.
+    pub what: &'static str,
+    /// The value, mmHg.
+    pub value_mmhg: f64,
+    /// One line: what it shows here, and how far it is from the judged value.
+    pub words: String,
 }
 
 /// One input's effect on a metric when moved across its range.
@@ -227,14 +320,17 @@ pub struct TargetReport {
     /// The target in words.
     pub target: String,
     /// Where it comes from.
-    pub source: String,
+    pub citation: String,
+    /// The zero level the target assumes, with its source.
+    pub zero: &'static str,
     /// The threshold it resolves to, mmHg (relative targets resolve through
     /// the baseline).
     pub threshold_mmhg: Option<f64>,
     /// How the threshold was found, for relative targets.
     pub threshold_steps: Vec<StepReport>,
-    /// The status, when the target could be evaluated.
-    pub status: Option<Status>,
+    /// Met, below, above; not evaluated when an input is missing (`words`
+    /// says which).
+    pub status: Status,
     /// How far inside the bound, mmHg: positive meets, negative fails.
     pub margin_mmhg: Option<f64>,
     /// Whether the plausible range reaches across the threshold.
@@ -242,12 +338,13 @@ pub struct TargetReport {
     /// The verdict in words.
     pub words: String,
     /// The reading each site must show to meet this target now.
-    pub required: Vec<Required>,
+    pub defend: Vec<Defend>,
 }
 
-/// A site reading that meets a target in the current position.
+/// The reading a site must show for a target to be met in the current
+/// position: the value to defend.
 #[derive(Clone, Debug, PartialEq, Serialize)]
-pub struct Required {
+pub struct Defend {
     /// The site (an arterial source's id, or a reading's name).
     pub site: String,
     /// Which component of its reading.
@@ -322,4 +419,62 @@ pub struct NotChecked {
     pub label: &'static str,
     /// What it needs.
     pub needs: Vec<String>,
+}
+
+/// The body height the geometry used.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct PatientHeight {
+    /// Standing height, cm.
+    pub height_cm: f64,
+    /// Its half-width in the ranges, cm.
+    pub uncertainty_cm: f64,
+    /// Whether it was assumed because none was given.
+    pub assumed: bool,
+}
+
+/// The venous pressure at an operative site above or below the heart.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct VenousSite {
+    /// The site.
+    pub site: Landmark,
+    /// It in words.
+    pub label: &'static str,
+    /// Whether the case named it (else the vertex of a seated patient).
+    pub chosen: bool,
+    /// Its height above the heart reference, cm.
+    pub above_heart_cm: f64,
+    /// The venous pressure there, from CVP at the heart, mmHg; `None`
+    /// without a CVP.
+    pub venous_mmhg: Option<f64>,
+    /// The CVP that would bring it to atmospheric, mmHg.
+    pub cvp_for_zero_mmhg: f64,
+    /// Whether it is below atmospheric; `None` without a CVP.
+    pub below_atmospheric: Option<bool>,
+    /// The finding in words.
+    pub words: String,
+}
+
+/// An external ventricular drain's opening pressure.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct DrainReport {
+    /// Whether it is open.
+    pub open: bool,
+    /// The ICP at the tragus above which it drains now, cmH2O.
+    pub opens_above_cmh2o: f64,
+    /// The same, mmHg.
+    pub opens_above_mmhg: f64,
+    /// Where it would drain at other backrest angles without re-levelling
+    /// (the chamber stays on its pole, the head moves with the bed).
+    pub by_backrest: Vec<DrainPoint>,
+    /// The finding in words.
+    pub words: String,
+}
+
+/// A drain's opening pressure at one backrest angle.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize)]
+pub struct DrainPoint {
+    /// Backrest angle, degrees.
+    pub backrest_deg: f64,
+    /// ICP at the tragus above which it drains, cmH2O.
+    pub opens_above_cmh2o: f64,
 }

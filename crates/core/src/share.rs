@@ -6,20 +6,20 @@
 //! record over time (too long for a link), nothing about the device. The
 //! fragment never reaches a web server, and decoding a hostile or damaged
 //! one gives a message, never a panic: sizes are capped before and after
-//! inflating, and the result goes through the same reader as any case file.
+//! inflating (`limits`), a link that would unpack to more is refused as
+//! too large, and the result goes through the same reader as any case file.
 
 use base64::engine::general_purpose::URL_SAFE_NO_PAD;
 use base64::Engine as _;
 
+use miniz_oxide::inflate::TINFLStatus;
+
 use crate::case::Case;
 use crate::error::{Error, ErrorKind, Errors};
+pub use crate::limits::{MAX_FRAGMENT_CHARS, MAX_INFLATED_BYTES};
 
 /// The fragment's prefix: format marker and version.
 pub const PREFIX: &str = "p1.";
-/// The longest fragment accepted, characters.
-pub const MAX_FRAGMENT_CHARS: usize = 16 * 1024;
-/// The largest case a fragment may inflate to, bytes.
-pub const MAX_INFLATED_BYTES: usize = 128 * 1024;
 
 fn damaged(message: impl Into<String>) -> Errors {
     Error::new(
@@ -61,9 +61,11 @@ pub fn link(base: &str, case: &Case) -> String {
 /// truncated, one too large, or a case with problems (each naming its field).
 pub fn decode(fragment: &str) -> Result<Case, Errors> {
     let fragment = fragment.trim().trim_start_matches('#');
-    if fragment.chars().count() > MAX_FRAGMENT_CHARS {
+    let chars = fragment.chars().count();
+    if chars > MAX_FRAGMENT_CHARS {
         return Err(damaged(format!(
-            "the link is longer than {MAX_FRAGMENT_CHARS} characters; it is not one this tool made"
+            "the link is {chars} characters long; at most {MAX_FRAGMENT_CHARS} are accepted, \
+             so it is not one this tool made"
         )));
     }
     let Some(body) = fragment.strip_prefix(PREFIX) else {
@@ -83,7 +85,16 @@ pub fn decode(fragment: &str) -> Result<Case, Errors> {
         .decode(body)
         .map_err(|_| damaged("the link is damaged: it was cut short or changed on the way"))?;
     let json = miniz_oxide::inflate::decompress_to_vec_with_limit(&bytes, MAX_INFLATED_BYTES)
-        .map_err(|_| damaged("the link is damaged or incomplete: it was cut short on the way"))?;
+        .map_err(|e| {
+            damaged(if e.status == TINFLStatus::HasMoreOutput {
+                format!(
+                    "the link is too large when unpacked: more than {MAX_INFLATED_BYTES} bytes, \
+                     where a case is at most that; it is not one this tool made"
+                )
+            } else {
+                "the link is damaged or incomplete: it was cut short on the way".to_owned()
+            })
+        })?;
     let text = String::from_utf8(json).map_err(|_| damaged("the link is damaged"))?;
     Case::from_json(&text)
 }
@@ -133,7 +144,10 @@ mod tests {
         check("p2.abc", "newer version");
         check("<script>alert(1)</script>", "does not carry");
         check("", "does not carry");
-        check(&"p1.".repeat(10_000), "longer than");
+        check(
+            &"p1.".repeat(10_000),
+            "30000 characters long; at most 16384",
+        );
         // A valid deflate stream of something that is not a case.
         let other = URL_SAFE_NO_PAD.encode(miniz_oxide::deflate::compress_to_vec(
             br#"{"format": "plumbline-case", "version": 1, "arterial": [{"id": "<img src=x onerror=alert(1)>"}]}"#,
@@ -143,10 +157,21 @@ mod tests {
     }
 
     #[test]
-    fn a_deflate_bomb_is_refused() {
+    fn a_deflate_bomb_is_refused_as_too_large() {
         let huge = vec![b' '; MAX_INFLATED_BYTES * 4];
         let bomb = URL_SAFE_NO_PAD.encode(miniz_oxide::deflate::compress_to_vec(&huge, 9));
-        assert!(decode(&format!("p1.{bomb}")).is_err());
+        let message = decode(&format!("p1.{bomb}")).unwrap_err().to_string();
+        assert!(
+            message.contains("too large when unpacked") && !message.contains("cut short"),
+            "{message}"
+        );
+        // One byte under the cap unpacks, and is read as the case it is.
+        let spaces = vec![b' '; MAX_INFLATED_BYTES - 2];
+        let mut near = b"{}".to_vec();
+        near.splice(1..1, spaces);
+        let near = URL_SAFE_NO_PAD.encode(miniz_oxide::deflate::compress_to_vec(&near, 9));
+        let message = decode(&format!("p1.{near}")).unwrap_err().to_string();
+        assert!(message.contains("format"), "{message}");
     }
 
     proptest! {

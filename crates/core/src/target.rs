@@ -34,8 +34,8 @@ pub struct Target {
     pub metric: Metric,
     /// The bound.
     pub bound: Bound,
-    /// Where the target comes from, in words.
-    pub source: String,
+    /// Where the target comes from: the guideline or study, with its tag.
+    pub citation: String,
 }
 
 impl Target {
@@ -70,9 +70,9 @@ pub struct TargetSpec {
     /// A lower bound relative to baseline, in percent.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub at_least_percent_of_baseline: Option<f64>,
-    /// Where the target comes from.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub source: Option<String>,
+    /// Where the target comes from (`source` in the document).
+    #[serde(default, rename = "source", skip_serializing_if = "Option::is_none")]
+    pub citation: Option<String>,
 }
 
 impl TargetSpec {
@@ -84,7 +84,7 @@ impl TargetSpec {
             at_least: None,
             at_most: None,
             at_least_percent_of_baseline: None,
-            source: Some(target.source.clone()),
+            citation: Some(target.citation.clone()),
         };
         match target.bound {
             Bound::AtLeast(p) => spec.at_least = Some(PressureEntry::mmhg(to_mmhg(p))),
@@ -191,8 +191,8 @@ impl TargetSpec {
                 organ: self.organ,
                 metric,
                 bound,
-                source: self
-                    .source
+                citation: self
+                    .citation
                     .clone()
                     .unwrap_or_else(|| "set in the case".to_owned()),
             }),
@@ -201,17 +201,19 @@ impl TargetSpec {
     }
 }
 
-fn target(organ: Organ, metric: Metric, bound: Bound, source: &str) -> Target {
+fn target(organ: Organ, metric: Metric, bound: Bound, citation: &str) -> Target {
     Target {
         organ,
         metric,
         bound,
-        source: source.to_owned(),
+        citation: citation.to_owned(),
     }
 }
 
 /// The default targets with their sources. Every one is a starting point to
-/// be replaced by the unit's own protocol.
+/// be replaced by the unit's own protocol. The brain has a target on its
+/// own-level MAP (absolute and relative to baseline) as well as CPP, so it
+/// is judged when no ICP is measured, as in the beach chair.
 pub fn defaults() -> Vec<Target> {
     use Bound::*;
     use Metric::*;
@@ -220,38 +222,59 @@ pub fn defaults() -> Vec<Target> {
             Organ::Brain,
             Perfusion,
             AtLeast(mmhg(60.0)),
-            "Brain Trauma Foundation guidelines, 4th edition (2016): CPP 60-70 mmHg",
+            "Brain Trauma Foundation guidelines, 4th edition (Carney et al., Neurosurgery \
+             2017): CPP 60-70 mmHg",
         ),
         target(
             Organ::Brain,
             Surrounding,
             AtMost(mmhg(22.0)),
-            "Brain Trauma Foundation guidelines, 4th edition (2016): treat ICP above 22 mmHg",
+            "Brain Trauma Foundation guidelines, 4th edition (Carney et al., Neurosurgery \
+             2017): treat ICP above 22 mmHg",
+        ),
+        target(
+            Organ::Brain,
+            Inflow,
+            AtLeast(mmhg(70.0)),
+            "lower limit of cerebral autoregulation probably around 70 mmHg MAP in many adults, \
+             with wide individual spread (Drummond, Anesthesiology 1997, editorial; from memory)",
+        ),
+        target(
+            Organ::Brain,
+            Inflow,
+            AtLeastPercentOfBaseline(80.0),
+            "beach-chair safety advice: correct the pressure to head level and limit its fall \
+             from baseline (APSF Newsletter 2009 correspondence); the 20% limit is common \
+             practice",
         ),
         target(
             Organ::Cord,
             Perfusion,
             AtLeast(mmhg(80.0)),
-            "spinal cord protection in aortic repair, ACC/AHA aortic disease guideline (2022); \
-             confirm against local protocol",
+            "spinal cord protection in aortic repair, ACC/AHA aortic disease guideline (2022, \
+             from memory); confirm against local protocol",
         ),
         target(
             Organ::Cord,
             Surrounding,
             AtMost(mmhg(10.0)),
-            "Coselli et al., J Vasc Surg 2002: CSF pressure kept at or below 10 mmHg in aortic repair",
+            "Coselli et al., J Vasc Surg 2002: CSF pressure kept at or below 10 mmHg in aortic \
+             repair, read at the drain's own zero",
         ),
         target(
             Organ::Abdomen,
             Perfusion,
             AtLeast(mmhg(60.0)),
-            "WSACS consensus (Kirkpatrick et al., Intensive Care Med 2013): APP at least 60 mmHg",
+            "Malbrain et al., Intensive Care Med 2006 (international consensus definitions): \
+             APP = MAP − IAP, at least 60 mmHg proposed as an end point; the 2013 update made \
+             no recommendation on APP",
         ),
         target(
             Organ::Kidney,
             Perfusion,
             AtLeast(mmhg(60.0)),
-            "renal perfusion (MAP − CVP) below 60 mmHg linked to worsening AKI (BMC Nephrol 2017)",
+            "renal perfusion pressure MAP − CVP below 60 mmHg associated with worsening acute \
+             kidney injury (BMC Nephrol 2017;18:146)",
         ),
         target(
             Organ::HeartCpr,
@@ -296,22 +319,63 @@ pub fn defaults() -> Vec<Target> {
     ]
 }
 
-/// How a value stands against a target.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+/// How a value, an organ or a stretch of record stands against its
+/// targets. Decided once, here in the core; front ends only show it.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Status {
-    /// The bound is met.
-    Meets,
+    /// Every evaluated bound is met.
+    Met,
     /// Below a lower bound.
     Below,
     /// Above an upper bound.
     Above,
+    /// A record target whose readings were never observed in the window.
+    NotObserved,
+    /// Nothing could be evaluated: an input is missing (the reason is given
+    /// beside the status).
+    NotEvaluated,
+}
+
+impl Status {
+    /// The status in a sentence: "met", "below", "not evaluated".
+    pub fn label(self) -> &'static str {
+        match self {
+            Status::Met => "met",
+            Status::Below => "below",
+            Status::Above => "above",
+            Status::NotObserved => "not observed",
+            Status::NotEvaluated => "not evaluated",
+        }
+    }
+
+    /// The status as a badge: "MET", "BELOW", "NOT EVALUATED".
+    pub fn badge(self) -> &'static str {
+        match self {
+            Status::Met => "MET",
+            Status::Below => "BELOW",
+            Status::Above => "ABOVE",
+            Status::NotObserved => "NOT OBSERVED",
+            Status::NotEvaluated => "NOT EVALUATED",
+        }
+    }
+
+    /// Whether a bound is missed.
+    pub fn is_missed(self) -> bool {
+        matches!(self, Status::Below | Status::Above)
+    }
+
+    /// Whether the status is a verdict on values (met, below, above) rather
+    /// than the absence of one.
+    pub fn is_judged(self) -> bool {
+        matches!(self, Status::Met | Status::Below | Status::Above)
+    }
 }
 
 /// The verdict of a value against a threshold.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct Verdict {
-    /// The status.
+    /// The status: met, below or above.
     pub status: Status,
     /// How far inside the bound the value is: positive meets, negative fails.
     pub margin: Pressure,
@@ -331,7 +395,7 @@ pub fn judge(value: Pressure, threshold: Pressure, at_least: bool) -> Verdict {
         threshold - value
     };
     let status = if to_mmhg(margin) >= -ON_THE_BOUND_MMHG {
-        Status::Meets
+        Status::Met
     } else if at_least {
         Status::Below
     } else {
@@ -401,7 +465,7 @@ mod tests {
             at_least: None,
             at_most: None,
             at_least_percent_of_baseline: None,
-            source: None,
+            citation: None,
         };
         assert!(spec.resolve("t").is_err());
         spec.at_least = Some(PressureEntry::mmhg(60.0));
@@ -418,7 +482,7 @@ mod tests {
             at_least: None,
             at_most: None,
             at_least_percent_of_baseline: Some(80.0),
-            source: None,
+            citation: None,
         };
         let errors = spec.resolve("targets[2]").unwrap_err();
         assert!(errors.iter().any(|e| e.field == "targets[2].metric"));
@@ -432,7 +496,7 @@ mod tests {
         let v = judge(mmhg(25.0), mmhg(22.0), false);
         assert_eq!(v.status, Status::Above);
         let v = judge(mmhg(60.0), mmhg(60.0), true);
-        assert_eq!(v.status, Status::Meets);
+        assert_eq!(v.status, Status::Met);
     }
 
     #[test]
@@ -441,11 +505,11 @@ mod tests {
         // and 15; a CPP of exactly 60 is not below a floor of 60.
         let cpp = mmhg(82.0) - mmhg(22.0);
         assert!(to_mmhg(cpp) < 60.0, "the rounding this guards against");
-        assert_eq!(judge(cpp, mmhg(60.0), true).status, Status::Meets);
+        assert_eq!(judge(cpp, mmhg(60.0), true).status, Status::Met);
         let cpr = mmhg(27.0) - mmhg(12.0);
-        assert_eq!(judge(cpr, mmhg(15.0), true).status, Status::Meets);
+        assert_eq!(judge(cpr, mmhg(15.0), true).status, Status::Met);
         let csf = mmhg(22.0) - mmhg(12.0);
-        assert_eq!(judge(csf, mmhg(10.0), false).status, Status::Meets);
+        assert_eq!(judge(csf, mmhg(10.0), false).status, Status::Met);
         assert_eq!(judge(mmhg(59.999), mmhg(60.0), true).status, Status::Below);
         assert_eq!(judge(mmhg(10.001), mmhg(10.0), false).status, Status::Above);
     }

@@ -459,7 +459,7 @@ fn beach_chair_ankle_cuff_reads_higher_than_the_arm() {
     let cpp = metric(&report, Organ::Brain, Metric::Perfusion);
     let needed = |site: &str| {
         cpp.targets[0]
-            .required
+            .defend
             .iter()
             .find(|r| r.site == site)
             .map(|r| r.needed_mmhg)

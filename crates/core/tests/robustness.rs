@@ -85,7 +85,7 @@ fn finite(report: &Report) -> Result<(), String> {
                         .map(|v| (format!("{name} target"), v)),
                 );
                 numbers.extend(
-                    t.required
+                    t.defend
                         .iter()
                         .map(|r| (format!("{name} required"), r.needed_mmhg)),
                 );

@@ -41,6 +41,15 @@ mod properties;
 // Regression tests for core bugs found by these suites, named after the bug.
 mod regressions;
 
+// Safe by default: verdicts with missing inputs, the brain without ICP, the
+// zero each target assumes, a cuff's per-reading spread, operative-site
+// venous pressure, a drain's level, the vertex, no body height.
+mod safety;
+
+// The invariants of DEVELOPERS.md: //! lines, uom only in units, no pressure
+// arithmetic in the screen, the core's allowed dependencies, file sizes.
+mod tidy;
+
 // Robustness: arbitrary text, arbitrary JSON and mutated example cases never
 // panic, and every error says something.
 mod robustness;

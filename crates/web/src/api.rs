@@ -8,11 +8,13 @@
 //! if (out.ok) use(out.report); else show(out.errors); // [{ field, message }]
 //! ```
 //!
-//! The object crosses with serde-wasm-bindgen: a plain JavaScript object is
-//! read into a JSON value and goes through the core's path-tracking reader
-//! (`Case::from_value`), so every problem names its field as in a case
-//! file; the answer is built as plain objects (maps as objects, as JSON
-//! would give them). Nothing is thrown: the answer says `ok` or lists the
+//! The object is written out as JSON text by the browser (`JSON.stringify`,
+//! which refuses a cyclic object in words rather than recursing without
+//! end) and read by the core's own reader for case files
+//! (`Case::from_json`): the same caps, the same path for every problem, the
+//! same messages as the command line and the screen. The answer is built
+//! with serde-wasm-bindgen as plain objects (maps as objects, as JSON would
+//! give them). Nothing is thrown: the answer says `ok` or lists the
 //! problems.
 
 use plumbline_core::case::Case;
@@ -69,22 +71,29 @@ fn refused<T>(errors: &Errors) -> Answer<T> {
     }
 }
 
-/// The case in a JavaScript value, read as a case file is.
-fn case_of(value: JsValue) -> Result<Case, Errors> {
-    let json: serde_json::Value = serde_wasm_bindgen::from_value(value).map_err(|e| {
-        Errors::from(Error::new(
-            "",
-            ErrorKind::Shape {
-                message: format!("not a plain object of a case: {e}"),
-            },
-        ))
-    })?;
-    Case::from_value(json)
+/// The case in a JavaScript value, written out as JSON text and read as a
+/// case file is.
+fn case_of(value: &JsValue) -> Result<Case, Errors> {
+    let text = js_sys::JSON::stringify(value)
+        .ok()
+        .and_then(|text| text.as_string())
+        .ok_or_else(|| {
+            Errors::from(Error::new(
+                "",
+                ErrorKind::Shape {
+                    message: "not a plain object of a case: it cannot be written as JSON \
+                              (a cycle, a BigInt, or nothing at all)"
+                        .to_owned(),
+                },
+            ))
+        })?;
+    Case::from_json(&text)
 }
 
-/// The check of a case given as a JSON value: the report, or every problem.
-pub fn check_value(value: serde_json::Value) -> Answer<Report> {
-    answer(Case::from_value(value))
+/// The check of a case given as JSON text, as `check` reads a JavaScript
+/// object once the browser has written it out: the report, or every problem.
+pub fn check_text(text: &str) -> Answer<Report> {
+    answer(Case::from_json(text))
 }
 
 fn answer(case: Result<Case, Errors>) -> Answer<Report> {
@@ -108,14 +117,14 @@ fn to_js<T: Serialize>(answer: &T) -> JsValue {
 /// `check(case)`: the core's check of a case object.
 #[wasm_bindgen(js_name = check)]
 pub fn check_js(case: JsValue) -> JsValue {
-    to_js(&answer(case_of(case)))
+    to_js(&answer(case_of(&case)))
 }
 
 /// `shareFragment(case)`: the link fragment (`p1....`, without `#`) that
 /// opens the case on another device.
 #[wasm_bindgen(js_name = shareFragment)]
 pub fn share_fragment_js(case: JsValue) -> JsValue {
-    let answer: Answer<()> = match case_of(case) {
+    let answer: Answer<()> = match case_of(&case) {
         Ok(case) => Answer {
             ok: true,
             report: None,
@@ -135,8 +144,7 @@ mod tests {
 
     #[test]
     fn a_good_case_gives_the_cores_report() {
-        let value: serde_json::Value = serde_json::from_str(CASE_JSON).unwrap();
-        let answer = check_value(value);
+        let answer = check_text(CASE_JSON);
         assert!(answer.ok);
         assert_eq!(answer.report, Some(check::check_json(CASE_JSON).unwrap()));
     }
@@ -147,7 +155,7 @@ mod tests {
             "format": "plumbline-case", "version": 1,
             "arterial": [{"id": "a", "method": "cuff", "level": "heart", "systolic": "120"}]
         });
-        let answer = check_value(value);
+        let answer = check_text(&value.to_string());
         assert!(!answer.ok);
         assert_eq!(answer.report, None);
         let first = answer.errors.first().unwrap();

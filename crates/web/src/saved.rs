@@ -9,11 +9,14 @@
 //! included. A record over time never goes in the envelope: it is kept
 //! under its own key, as a case document holding only the timeline and
 //! the position the record starts in, and written only when it changes.
-//! Reading never panics: anything it cannot use gives a reason in words.
+//! Reading never panics: anything it cannot use gives a reason in words,
+//! and the saved boxes are held to a case's caps (as many sources and
+//! targets, as long a text) before they are read.
 
 use plumbline_core::case::{Case, TimelineSpec, FORMAT as CASE_FORMAT, VERSION as CASE_VERSION};
-use plumbline_core::error::Errors;
+use plumbline_core::error::{Error, Errors};
 use plumbline_core::geometry::PositionSpec;
+use plumbline_core::limits::{self, MAX_ARTERIAL, MAX_TARGETS, MAX_TEXT_CHARS};
 use serde::Serialize;
 use serde_json::Value;
 
@@ -130,12 +133,50 @@ pub fn decode(text: &str) -> Result<Saved, String> {
         .map_or(Theme::Device, Theme::from_key);
     let case = Case::from_value(fields.remove("case").unwrap_or(Value::Null))
         .map_err(|e| format!("its case cannot be read ({})", first_words(&e)))?;
-    let form: Form = serde_json::from_value(fields.remove("form").unwrap_or(Value::Null))
-        .map_err(|e| format!("its boxes cannot be read ({e})"))?;
+    let form = fields.remove("form").unwrap_or(Value::Null);
+    form_within_limits(&form).map_err(|e| format!("its boxes cannot be read ({e})"))?;
+    let form: Form =
+        serde_json::from_value(form).map_err(|e| format!("its boxes cannot be read ({e})"))?;
     Ok(Saved {
         form: form.with_base(case),
         theme,
     })
+}
+
+/// The saved boxes against the caps a case has: as many sources and
+/// targets, and no box longer than a case's longest text.
+fn form_within_limits(form: &Value) -> Result<(), Error> {
+    for (key, what, max) in [
+        ("sources", "arterial sources", MAX_ARTERIAL),
+        ("targets", "targets", MAX_TARGETS),
+    ] {
+        let n = form.get(key).and_then(Value::as_array).map_or(0, Vec::len);
+        if n > max {
+            return Err(limits::over(format!("form.{key}"), n, what, max));
+        }
+    }
+    longest_text(form, "form")
+}
+
+/// The first text in `value` longer than a case's longest, by its path.
+fn longest_text(value: &Value, path: &str) -> Result<(), Error> {
+    match value {
+        Value::String(text) if text.len() > MAX_TEXT_CHARS => {
+            let chars = text.chars().count();
+            if chars > MAX_TEXT_CHARS {
+                return Err(limits::over(path, chars, "characters", MAX_TEXT_CHARS));
+            }
+            Ok(())
+        }
+        Value::Array(items) => items
+            .iter()
+            .enumerate()
+            .try_for_each(|(i, v)| longest_text(v, &format!("{path}[{i}]"))),
+        Value::Object(map) => map
+            .iter()
+            .try_for_each(|(k, v)| longest_text(v, &format!("{path}.{k}"))),
+        _ => Ok(()),
+    }
 }
 
 /// A record over time as a case document holding only the timeline and
@@ -201,6 +242,23 @@ mod tests {
 
     fn demo_form() -> Form {
         Form::from_case(&Case::from_json(CASE_JSON).unwrap())
+    }
+
+    #[test]
+    fn a_state_past_the_caps_says_which() {
+        let mut value: Value = serde_json::from_str(&encode(&demo_form(), Theme::Light)).unwrap();
+        let source = value["form"]["sources"][0].clone();
+        value["form"]["sources"] = Value::Array(vec![source; MAX_ARTERIAL + 1]);
+        assert_eq!(
+            decode(&value.to_string()).unwrap_err(),
+            "its boxes cannot be read (form.sources: 65 arterial sources; at most 64 are accepted)"
+        );
+        let mut value: Value = serde_json::from_str(&encode(&demo_form(), Theme::Light)).unwrap();
+        value["form"]["haematocrit"] = Value::from("4".repeat(MAX_TEXT_CHARS + 1));
+        assert_eq!(
+            decode(&value.to_string()).unwrap_err(),
+            "its boxes cannot be read (form.haematocrit: 1001 characters; at most 1000 are accepted)"
+        );
     }
 
     /// A record of 1000 samples riding in the demo's case.

@@ -1,22 +1,9 @@
-//! How the core's numbers and names are written on screen: rounding for
-//! display only, and short names where space is tight.
+//! How the core's numbers and names are written on screen: the core's own
+//! display rounding, short names where space is tight, and ids for boxes.
 
 use plumbline_core::target::Status;
 
-/// A pressure rounded to a whole mmHg, as the command line writes it.
-pub fn rounded(v: f64) -> String {
-    format!("{:.0}", v.round() + 0.0)
-}
-
-/// A height in cm with its sign and one decimal.
-pub fn signed_cm(v: f64) -> String {
-    format!("{:+.1}", (v * 10.0).round() / 10.0 + 0.0)
-}
-
-/// A height in whole cm with its sign, for the picture's labels.
-pub fn signed_whole_cm(v: f64) -> String {
-    format!("{:+.0}", v.round() + 0.0)
-}
+pub use plumbline_core::text::{signed_cm, signed_whole_cm, whole_mmhg as rounded};
 
 /// A core label without its parenthesis or qualifier: "tragus (ear level)"
 /// becomes "tragus", "iliac crest, mid-axillary line" becomes "iliac crest".
@@ -28,23 +15,13 @@ pub fn short(label: &str) -> &str {
         .unwrap_or(label)
 }
 
-/// How a status is shown: its word, and the name of its shape.
-pub fn status_word(status: Option<Status>) -> &'static str {
-    match status {
-        Some(Status::Meets) => "MEETS",
-        Some(Status::Below) => "BELOW",
-        Some(Status::Above) => "ABOVE",
-        None => "NOT EVALUATED",
-    }
-}
-
 /// The CSS class that gives a status its shape and colour.
-pub fn status_class(status: Option<Status>) -> &'static str {
+pub fn status_class(status: Status) -> &'static str {
     match status {
-        Some(Status::Meets) => "status-meets",
-        Some(Status::Below) => "status-below",
-        Some(Status::Above) => "status-above",
-        None => "status-none",
+        Status::Met => "status-meets",
+        Status::Below => "status-below",
+        Status::Above => "status-above",
+        Status::NotObserved | Status::NotEvaluated => "status-none",
     }
 }
 
@@ -109,17 +86,6 @@ mod tests {
         assert_eq!(path_words("position.backrest_deg"), "position · backrest");
         assert_eq!(path_words("targets[2].at_least"), "target 3 · at least");
         assert_eq!(path_words(""), "");
-    }
-
-    #[test]
-    fn rounding_matches_the_command_line() {
-        assert_eq!(rounded(39.244), "39");
-        assert_eq!(rounded(94.5), "95");
-        assert_eq!(rounded(-0.4), "0");
-        assert_eq!(rounded(-2.5), "-3");
-        assert_eq!(signed_cm(32.11), "+32.1");
-        assert_eq!(signed_cm(-0.01), "+0.0");
-        assert_eq!(signed_whole_cm(-0.2), "+0");
     }
 
     #[test]

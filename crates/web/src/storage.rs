@@ -7,8 +7,10 @@
 //! writes the keys). An envelope is `{"format": ..., "version":
 //! ..., ...fields}`; opening one checks its header and hands back the
 //! other fields, or says in words why it cannot be used. Opening never
-//! panics.
+//! panics, and holds a text to the core's caps (`limits`: its bytes and
+//! nesting) before it is parsed, so a stored text never stalls a start.
 
+use plumbline_core::limits;
 use serde::Serialize;
 use serde_json::{Map, Value};
 
@@ -54,9 +56,9 @@ pub fn rescued_names(key: &str) -> Option<(&str, &str)> {
     Some((part, why))
 }
 
-/// The longest text read back, characters: far above any check, and a
-/// guard against a store filled by something else.
-pub const MAX_CHARS: usize = 8 * 1024 * 1024;
+/// The longest text read back, bytes: far above any check, and a guard
+/// against a store filled by something else.
+pub const MAX_CHARS: usize = limits::MAX_SAVED_STATE_BYTES;
 
 /// One kind of envelope: its `format` and `version` fields, and what it
 /// holds in words, for the reasons given when it cannot be opened.
@@ -98,11 +100,12 @@ impl Kind {
     pub fn open(self, text: &str) -> Result<Map<String, Value>, String> {
         if text.len() > MAX_CHARS {
             return Err(format!(
-                "it is {} characters long, more than {} saved by Plumbline can be",
+                "it is {} bytes long; {} saved by Plumbline is at most {MAX_CHARS}",
                 text.len(),
                 self.what
             ));
         }
+        limits::check_nesting(text).map_err(|e| format!("it cannot be read ({e})"))?;
         let value: Value = serde_json::from_str(text)
             .map_err(|_| "it is incomplete, perhaps cut short or changed".to_owned())?;
         let Value::Object(mut fields) = value else {
@@ -211,7 +214,11 @@ mod tests {
         );
         check(&good.replace(r#""version":2"#, r#""version":1"#), "unknown");
         check(r#"{"format": "plumbline-test"}"#, "version is missing");
-        check(&" ".repeat(MAX_CHARS + 1), "characters long");
+        check(&" ".repeat(MAX_CHARS + 1), "bytes long");
+        check(
+            &format!("{}{}", "[".repeat(300), "]".repeat(300)),
+            "300 levels of nesting; at most 32 are accepted",
+        );
     }
 }
 

@@ -1,6 +1,9 @@
 //! The JavaScript face in headless Chromium (`wasm-bindgen-test`): `check`
 //! and `shareFragment` called with plain objects, as another page calls
-//! them, against the core's own `check::check_case` and `share::decode`.
+//! them, against the core's own `check::check_case` and `share::decode`,
+//! and the shared documents of `tests/documents.rs` answered as the file
+//! reader answers them (the command line's `one_answer` test holds the
+//! file reader to the command line and the page).
 
 #![cfg(target_arch = "wasm32")]
 #![allow(clippy::unwrap_used, clippy::expect_used, clippy::indexing_slicing)]
@@ -8,12 +11,15 @@
 use plumbline_core::case::Case;
 use plumbline_core::demo::CASE_JSON;
 use plumbline_core::{check, share};
-use plumbline_web::api::{check_js, share_fragment_js};
+use plumbline_web::api::{check_js, check_text, share_fragment_js};
 use serde_json::Value;
 use wasm_bindgen::JsValue;
 use wasm_bindgen_test::{wasm_bindgen_test, wasm_bindgen_test_configure};
 
 wasm_bindgen_test_configure!(run_in_browser);
+
+#[path = "../../../tests/documents.rs"]
+mod documents;
 
 /// A plain JavaScript object, as another page would build it.
 fn object(json: &str) -> JsValue {
@@ -115,6 +121,50 @@ fn what_is_not_a_case_object_is_refused_in_words() {
         let message = answer["errors"][0]["message"].as_str().unwrap();
         assert!(!message.is_empty());
     }
+}
+
+#[wasm_bindgen_test]
+fn every_shared_document_gets_the_file_readers_answer() {
+    let mut objects = 0;
+    for (name, text) in documents::DOCUMENTS {
+        // A document that is not JSON cannot be an object to pass.
+        let Ok(value) = js_sys::JSON::parse(text) else {
+            continue;
+        };
+        objects += 1;
+        let got = seen(&check_js(value));
+        let expected = serde_json::to_value(check_text(text)).unwrap();
+        assert_eq!(got["ok"], expected["ok"], "{name}");
+        assert_eq!(got["errors"], expected["errors"], "{name}");
+        let report = (got.get("report"), expected.get("report"));
+        if let (Some(got), Some(expected)) = report {
+            assert_eq!(differ(got, expected, name), None);
+        } else {
+            assert!(report.0.is_none() && report.1.is_none(), "{name}");
+        }
+    }
+    assert!(objects >= 20, "{objects}");
+}
+
+#[wasm_bindgen_test]
+fn a_cyclic_or_bottomless_object_is_refused_in_words() {
+    let cyclic = object(r#"{"format": "plumbline-case", "version": 1}"#);
+    js_sys::Reflect::set(&cyclic, &JsValue::from_str("patient"), &cyclic).unwrap();
+    let answer = seen(&check_js(cyclic));
+    assert_eq!(answer["ok"], Value::Bool(false));
+    let message = answer["errors"][0]["message"].as_str().unwrap();
+    assert!(message.contains("cannot be written as JSON"), "{message}");
+
+    let deep = format!(
+        r#"{{"format": "plumbline-case", "version": 1, "patient": {}{}}}"#,
+        "[".repeat(5000),
+        "]".repeat(5000)
+    );
+    let answer = seen(&check_js(object(&deep)));
+    assert_eq!(
+        answer["errors"][0]["message"],
+        Value::from("5001 levels of nesting; at most 32 are accepted")
+    );
 }
 
 #[wasm_bindgen_test]

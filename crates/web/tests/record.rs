@@ -32,9 +32,9 @@ fn opening_a_file_gives_the_cores_exposure() {
     let case = state.checked.as_ref().unwrap().case.clone();
     let state = open(state, "beach-chair-record.csv", RECORD.into());
     let analysis = state.record.analysis.clone().unwrap();
-    let cli = record::exposure_of(&record::import_into(&case, RECORD).unwrap()).unwrap();
-    assert_eq!(analysis.exposure, cli.0);
-    assert_eq!(analysis.trends.len(), 2);
+    let cli = record::Recorded::import(&case, RECORD, &Default::default()).unwrap();
+    assert_eq!(analysis.exposure, cli.exposure());
+    assert_eq!(analysis.trends.len(), 3);
     assert!(state.checked.as_ref().unwrap().case.timeline.is_none());
 }
 

@@ -8,6 +8,7 @@
 //! gives the joints in a picture plane so a front end can draw the position;
 //! there is no drawing code here.
 
+mod body;
 mod chain;
 mod position;
 pub mod proportions;
@@ -16,10 +17,11 @@ use std::collections::BTreeMap;
 
 use serde::Serialize;
 
-pub use chain::{
-    place, Body, GeometryParam, Limb, Placement, PlanePoint, Segment, Shift, MEASURED_SEGMENT_CM,
-    PROPORTION_SPREAD,
+pub use body::{
+    Body, GeometryParam, Segment, Shift, ASSUMED_HEIGHT_CM, ASSUMED_HEIGHT_SPREAD_CM,
+    MEASURED_SEGMENT_CM, PROPORTION_SPREAD, STATED_HEIGHT_CM,
 };
+pub use chain::{place, Limb, Placement, PlanePoint};
 pub use position::{Angles, ArmPlacement, Lie, Position, PositionSpec, Posture};
 
 use crate::landmark::Landmark;
@@ -160,6 +162,34 @@ mod tests {
         let h = heights(with_backrest(90.0), 176.0);
         let expected = (proportions::TRAGUS - proportions::standing::CHEST) * 176.0;
         assert!((h[&Tragus] - expected).abs() < 1e-9, "{}", h[&Tragus]);
+    }
+
+    #[test]
+    fn upright_the_vertex_tops_the_head_and_the_shoulders_sit_at_shoulder_height() {
+        let h = heights(with_backrest(90.0), 176.0);
+        let above_tragus = (proportions::VERTEX - proportions::TRAGUS) * 176.0;
+        assert!((h[&Vertex] - h[&Tragus] - above_tragus).abs() < 1e-9);
+        assert!(h[&PosteriorFossa] < h[&Tragus]);
+        let shoulder = (proportions::standing::SHOULDER - proportions::standing::CHEST) * 176.0;
+        assert!((h[&ShoulderLeft] - shoulder).abs() < 1e-9);
+        assert!((h[&ShoulderRight] - shoulder).abs() < 1e-9);
+        // Supine, the posterior fossa lies below the ear canal by its depth.
+        let flat = heights(spec(Posture::Supine), 176.0);
+        assert!((flat[&PosteriorFossa] - proportions::forward_cm::POSTERIOR_FOSSA).abs() < 1e-9);
+    }
+
+    #[test]
+    fn the_heart_rises_above_the_hips_with_the_backrest() {
+        let above = |deg: f64| {
+            let position = with_backrest(deg).resolve("position").unwrap();
+            to_cm(place(&Body::of_height(cm(176.0)), &position, None).heart_above_hips)
+        };
+        assert!(
+            above(0.0).abs() < 1e-9,
+            "supine, the heart is level with the hips"
+        );
+        let trunk = (proportions::standing::CHEST - proportions::standing::HIP) * 176.0;
+        assert!((above(90.0) - trunk).abs() < 1e-9);
     }
 
     #[test]

@@ -33,6 +33,11 @@ pub mod standing {
 /// Tragus sits about 1% of body height below eye level: the Frankfurt plane
 /// passes through the ear canal and the lower rim of the orbit (assumed).
 pub const TRAGUS: f64 = standing::EYE - 0.010;
+/// The vertex, the top of the head: standing height itself.
+pub const VERTEX: f64 = 1.0;
+/// The posterior fossa's operative site, about 1% of H below the tragus
+/// (assumed), behind it by [`forward_cm::POSTERIOR_FOSSA`].
+pub const POSTERIOR_FOSSA: f64 = TRAGUS - 0.010;
 /// Iliac crest, about 6% of H above the hip joint (assumed).
 pub const ILIAC_CREST: f64 = standing::HIP + 0.060;
 /// Kidney hilum (L1-L2), about 8% of H above the hip joint (assumed).
@@ -49,6 +54,8 @@ pub const CORD_CERVICAL: f64 = standing::SHOULDER + 0.028;
 pub mod forward_cm {
     /// Globe centre in front of the ear canal.
     pub const EYE: f64 = 8.0;
+    /// The posterior fossa's surface behind the ear canal.
+    pub const POSTERIOR_FOSSA: f64 = -7.0;
     /// Cervical cord behind the plane through the ear and shoulder.
     pub const CORD_CERVICAL: f64 = -2.0;
     /// Thoracic cord behind mid-chest.

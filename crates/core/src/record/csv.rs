@@ -20,19 +20,21 @@
 //! or clock times, all rows alike). Lines starting with `#` are comments. A
 //! comma, semicolon or tab separates fields, whichever the header uses. Every
 //! problem is reported with its line and column, and nothing is imported
-//! until the file is clean.
+//! until the file is clean. The file's bytes, rows, columns and line length
+//! are capped (`limits`) before a line is split.
 
 use std::collections::BTreeMap;
 
 use super::clock::{self, Stamp};
 use super::{channel_input, input_range, MAX_SAMPLES, MAX_SPAN_S};
-use crate::case::{ChannelSpec, TimelineSpec, MAX_BYTES};
+use crate::case::{ChannelSpec, TimelineSpec};
 use crate::error::{Error, ErrorKind, Errors};
+use crate::limits::{self, MAX_CSV_COLUMNS, MAX_CSV_LINE_BYTES, MAX_CSV_ROWS};
 use crate::scene::Scene;
 use crate::units::{to_mmhg, PressureEntry, PressureUnit};
 
 /// The most problems listed before the import gives up.
-pub const MAX_PROBLEMS: usize = 100;
+pub const MAX_PROBLEMS: usize = limits::MAX_CSV_PROBLEMS;
 
 /// Splits one line into fields, honouring double quotes (`""` inside
 /// quotes is a quote).
@@ -106,6 +108,12 @@ impl Reader {
 
     fn shape(&mut self, line: usize, column: usize, message: String) {
         self.error(line, column, ErrorKind::Shape { message });
+    }
+
+    /// A cap met on `line`: `found` of `what` where `max` are accepted.
+    fn over(&mut self, line: usize, found: usize, what: &str, max: usize) {
+        let kind = limits::over("", found, what, max).kind;
+        self.error(line, 0, kind);
     }
 }
 
@@ -194,14 +202,7 @@ pub fn import(text: &str, scene: &Scene) -> Result<TimelineSpec, Errors> {
         errors: Errors::default(),
         full: false,
     };
-    if text.len() > MAX_BYTES {
-        r.shape(
-            0,
-            0,
-            format!("the file is {} bytes; at most {MAX_BYTES}", text.len()),
-        );
-        return Err(r.errors);
-    }
+    limits::check_bytes("", text.len())?;
     let mut lines = text
         .lines()
         .enumerate()
@@ -211,12 +212,25 @@ pub fn import(text: &str, scene: &Scene) -> Result<TimelineSpec, Errors> {
         r.shape(1, 0, "the file has no header line".to_owned());
         return Err(r.errors);
     };
+    if header.len() > MAX_CSV_LINE_BYTES {
+        r.over(
+            header_line,
+            header.len(),
+            "bytes in one line",
+            MAX_CSV_LINE_BYTES,
+        );
+        return Err(r.errors);
+    }
     let sep = [',', ';', '\t']
         .into_iter()
         .max_by_key(|c| header.matches(*c).count())
         .unwrap_or(',');
     let decimal_comma = sep != ',';
     let head = split(header, sep);
+    if head.len() > MAX_CSV_COLUMNS {
+        r.over(header_line, head.len(), "columns", MAX_CSV_COLUMNS);
+        return Err(r.errors);
+    }
     let names: Vec<String> = head.iter().map(|h| h.trim().to_ascii_lowercase()).collect();
     let kind = match names.first().map(String::as_str) {
         Some("elapsed_s") => TimeKind::Elapsed,
@@ -275,9 +289,17 @@ pub fn import(text: &str, scene: &Scene) -> Result<TimelineSpec, Errors> {
 
     let mut samples = 0usize;
     let mut last_row_time = f64::NEG_INFINITY;
-    for (line, text) in lines {
+    for (row, (line, text)) in lines.enumerate() {
         if r.full {
             break;
+        }
+        if row == MAX_CSV_ROWS {
+            r.over(line, row + 1, "rows (or more)", MAX_CSV_ROWS);
+            break;
+        }
+        if text.len() > MAX_CSV_LINE_BYTES {
+            r.over(line, text.len(), "bytes in one line", MAX_CSV_LINE_BYTES);
+            continue;
         }
         let fields = split(text, sep);
         if fields.len() != head.len() {
@@ -484,122 +506,5 @@ fn quote(name: &str) -> String {
 }
 
 #[cfg(test)]
-mod tests {
-    #![allow(clippy::unwrap_used, clippy::indexing_slicing)]
-    use super::*;
-    use crate::case::Case;
-
-    fn scene() -> Scene {
-        Scene::from_case(&Case::from_json(crate::demo::CASE_JSON).unwrap()).unwrap()
-    }
-
-    fn fields_of(text: &str) -> Vec<String> {
-        import(text, &scene())
-            .unwrap_err()
-            .iter()
-            .map(|e| e.field.clone())
-            .collect()
-    }
-
-    #[test]
-    fn wide_file_with_units_and_gaps() {
-        let text = "# from a monitor\nelapsed_s,radial line.mean [mmHg],icp [cmH2O]\n0,74,14\n1,73,\n2,,13.5\n";
-        let spec = import(text, &scene()).unwrap();
-        assert_eq!(spec.channels.len(), 2);
-        assert_eq!(spec.channels[0].t_s, vec![0.0, 1.0]);
-        assert_eq!(spec.channels[1].unit, PressureUnit::CmH2O);
-        assert_eq!(spec.channels[1].values, vec![14.0, 13.5]);
-    }
-
-    #[test]
-    fn long_file_with_clock_times_crossing_midnight() {
-        let text = "time,channel,value\n23:59:30,radial line.mean,74 mmHg\n00:00:30,radial line.mean,70 mmHg\n";
-        let spec = import(text, &scene()).unwrap();
-        assert_eq!(spec.channels[0].t_s, vec![0.0, 60.0]);
-        assert_eq!(spec.clock_start.as_deref(), Some("23:59:30"));
-    }
-
-    #[test]
-    fn semicolons_take_decimal_commas() {
-        let text = "elapsed_s;radial line.mean [mmHg]\n0;74,5\n";
-        let spec = import(text, &scene()).unwrap();
-        assert_eq!(spec.channels[0].values, vec![74.5]);
-    }
-
-    #[test]
-    fn every_problem_has_its_line_and_column() {
-        let text = "elapsed_s,radial line.mean [mmHg],femoral.mean [mmHg],cvp\n\
-                    0,74,1\n\
-                    x,70\n\
-                    1,700\n\
-                    1,70\n";
-        let fields = fields_of(text);
-        assert!(
-            fields.contains(&"line 1, column 3".to_owned()),
-            "{fields:?}"
-        );
-        assert!(
-            fields.contains(&"line 1, column 4".to_owned()),
-            "{fields:?}"
-        );
-        assert!(fields.contains(&"line 3".to_owned()), "{fields:?}");
-        assert!(fields.contains(&"line 4".to_owned()), "{fields:?}");
-    }
-
-    #[test]
-    fn values_out_of_range_and_backward_times() {
-        let text = "elapsed_s,radial line.mean [mmHg]\n0,74\n5,700\n3,70\n";
-        let fields = fields_of(text);
-        assert_eq!(fields, vec!["line 3, column 2", "line 4, column 1"]);
-    }
-
-    #[test]
-    fn export_reads_back() {
-        let text = "elapsed_s,radial line.mean [mmHg],left arm cuff.mean [mmHg]\n0,74,\n1,73,79\n";
-        let spec = import(text, &scene()).unwrap();
-        let again = import(&export(&spec), &scene()).unwrap();
-        assert_eq!(spec, again);
-    }
-
-    proptest::proptest! {
-        #![proptest_config(proptest::prelude::ProptestConfig::with_cases(3000))]
-
-        /// Any text is read or refused with messages, never a panic.
-        #[test]
-        fn any_text_imports_or_errs(text in "(?s).{0,600}") {
-            if let Err(errors) = import(&text, &scene()) {
-                proptest::prop_assert!(errors.iter().all(|e| !e.to_string().is_empty()));
-            }
-        }
-
-        /// A valid file with bytes changed anywhere never panics either.
-        #[test]
-        fn mutated_files_never_panic(
-            edits in proptest::collection::vec((0usize..400, proptest::prelude::any::<char>()), 1..12)
-        ) {
-            let mut chars: Vec<char> = "time,channel,value\n08:00:00,radial line.mean,74 mmHg\n\
-                 08:00:01,radial line.mean,73,5 mmHg\n23:59:59,icp,14 cmH2O\n\
-                 2026-03-04T08:00:00Z,left arm cuff.systolic,120 mmHg\n"
-                .chars()
-                .collect();
-            for (at, c) in edits {
-                let len = chars.len();
-                if let Some(x) = chars.get_mut(at % len) {
-                    *x = c;
-                }
-            }
-            let text: String = chars.into_iter().collect();
-            let _ = import(&text, &scene());
-            let wide = text.replace("time,channel,value", "elapsed_s,radial line.mean [mmHg]");
-            let _ = import(&wide, &scene());
-        }
-    }
-
-    #[test]
-    fn empty_and_headless_files() {
-        assert!(import("", &scene()).is_err());
-        assert!(import("# only a comment\n", &scene()).is_err());
-        assert!(import("elapsed_s,radial line.mean [mmHg]\n", &scene()).is_err());
-        assert!(import("when,radial line.mean [mmHg]\n0,1\n", &scene()).is_err());
-    }
-}
+#[path = "csv_tests.rs"]
+mod tests;

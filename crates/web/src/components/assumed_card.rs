@@ -2,11 +2,11 @@
 //! every result that uses it is only as good as the assumption.
 
 use plumbline_core::reading::Quantity;
+use plumbline_core::usual::levels_for;
 use yew::prelude::*;
 
 use crate::components::level_picker::LevelPicker;
 use crate::components::pressure_input::PressureInput;
-use crate::components::reading_card::choices;
 use crate::form::{AssumedForm, Edit, LevelPick, ReadingPart, Slot};
 use crate::state::{Action, Handle};
 
@@ -50,7 +50,7 @@ pub fn AssumedCard(props: &AssumedCardProps) -> Html {
                 slot={Slot::Assumed(q, ReadingPart::Value)} field={props.assumed.value.clone()}
                 messages={s.messages(&value_path)} dispatch={s.dispatcher()} />
             <LevelPicker path={format!("{path}.level")} level={props.assumed.level.clone()}
-                choices={choices(q)} usual={usual}
+                choices={levels_for(q)} usual={usual}
                 height_slot={Slot::Assumed(q, ReadingPart::LevelHeight)}
                 onpick={onpick} state={s.clone()} dispatch={s.dispatcher()} />
             <button type="button" class="remove" onclick={onremove}>

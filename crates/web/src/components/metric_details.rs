@@ -38,6 +38,9 @@ pub fn MetricDetails(props: &MetricDetailsProps) -> Html {
                     { format!("range {} to {} mmHg", rounded(m.lower_mmhg), rounded(m.upper_mmhg)) }
                 </span>
             </div>
+            if let Some(b) = &m.beside {
+                <p class="beside">{ b.words.clone() }</p>
+            }
             { for m.assumed.iter().map(|q| html! {
                 <p class="assumed-flag">
                     <span class="tag tag-assumed">{ "ASSUMED" }</span>
@@ -50,12 +53,13 @@ pub fn MetricDetails(props: &MetricDetailsProps) -> Html {
                         <StatusBadge status={t.status} />
                         <span>{ format!("{}: {}", t.target, t.words) }</span>
                     </p>
-                    { for t.required.iter().map(|r| html! {
-                        <p class={if t.status == Some(Status::Meets) { "defend-ok" } else { "defend" }}>
+                    { for t.defend.iter().map(|r| html! {
+                        <p class={if t.status == Status::Met { "defend-ok" } else { "defend" }}>
                             { format!("To meet it now: {}", r.words) }
                         </p>
                     }) }
-                    <p class="source">{ format!("Target source: {}", t.source) }</p>
+                    <p class="source">{ format!("Target source: {}", t.citation) }</p>
+                    <p class="source">{ format!("Zero it assumes: {}", t.zero) }</p>
                 </div>
             }) }
             if let Some(grade) = &m.grade {

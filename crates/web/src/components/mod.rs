@@ -6,6 +6,7 @@ pub mod caution;
 pub mod demo_notice;
 pub mod field_messages;
 pub mod figure_view;
+pub mod hazards_panel;
 pub mod heights_table;
 pub mod length_input;
 pub mod level_picker;

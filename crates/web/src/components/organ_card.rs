@@ -4,6 +4,7 @@ use plumbline_core::report::OrganReport;
 use yew::prelude::*;
 
 use crate::components::metric_details::MetricDetails;
+use crate::components::status_badge::StatusBadge;
 use crate::show::signed_cm;
 
 /// Props of [`OrganCard`].
@@ -21,6 +22,10 @@ pub fn OrganCard(props: &OrganCardProps) -> Html {
     html! {
         <section class="organ" aria-labelledby={id.clone()}>
             <h3 id={id}>{ o.label }</h3>
+            <p class="organ-verdict">
+                <StatusBadge status={o.verdict.status} />
+                <span>{ o.verdict.words.clone() }</span>
+            </p>
             <p class="level">
                 { format!("checked at the {} ({} cm from the heart reference)", o.level_label, signed_cm(o.level_height_cm)) }
             </p>

@@ -1,7 +1,7 @@
 //! One measured pressure other than arterial: value, method and level.
 
-use plumbline_core::landmark::Landmark;
 use plumbline_core::reading::{Method, Quantity};
+use plumbline_core::usual::levels_for;
 use web_sys::HtmlSelectElement;
 use yew::prelude::*;
 
@@ -9,19 +9,6 @@ use crate::components::level_picker::LevelPicker;
 use crate::components::pressure_input::PressureInput;
 use crate::form::{Edit, LevelPick, ReadingForm, ReadingPart, Slot};
 use crate::state::{Action, Handle};
-
-/// The landmarks a quantity can be levelled at: an eye for IOP, a limb for
-/// compartment pressure, any landmark otherwise.
-pub fn choices(quantity: Quantity) -> Vec<Landmark> {
-    Landmark::ALL
-        .into_iter()
-        .filter(|l| match quantity {
-            Quantity::Iop => l.is_eye(),
-            Quantity::Compartment => l.is_limb(),
-            _ => true,
-        })
-        .collect()
-}
 
 /// Props of [`ReadingCard`].
 #[derive(Properties, PartialEq)]
@@ -77,7 +64,7 @@ pub fn ReadingCard(props: &ReadingCardProps) -> Html {
                 </div>
             </div>
             <LevelPicker path={format!("{path}.level")} level={props.reading.level.clone()}
-                choices={choices(q)} height_slot={Slot::Reading(q, ReadingPart::LevelHeight)}
+                choices={levels_for(q)} height_slot={Slot::Reading(q, ReadingPart::LevelHeight)}
                 onpick={onpick} state={s.clone()} dispatch={s.dispatcher()} />
             <details class="more" open={!props.reading.accuracy.text.trim().is_empty()
                 || !s.messages(&accuracy_path).is_empty()}>

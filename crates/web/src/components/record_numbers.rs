@@ -26,19 +26,11 @@ pub struct RecordNumbersProps {
 pub fn RecordNumbers(props: &RecordNumbersProps) -> Html {
     let t = &props.exposure;
     let side = if t.at_least { "below" } else { "above" };
-    let status = if t.observed_min <= 0.0 {
-        None
-    } else if t.outside_min <= 0.0 {
-        Some(Status::Meets)
-    } else if t.at_least {
-        Some(Status::Below)
-    } else {
-        Some(Status::Above)
-    };
+    let status = t.status;
     let headline = match status {
-        None => "no observed time".to_owned(),
-        Some(Status::Meets) => format!("never {side} it"),
-        Some(_) => format!("for {:.1} min", t.outside_min),
+        Status::Met => format!("never {side} it"),
+        Status::Below | Status::Above => format!("for {:.1} min", t.outside_min),
+        Status::NotObserved | Status::NotEvaluated => "no observed time".to_owned(),
     };
     let worst = t.worst_at_s.zip(t.worst_mmhg).map(|(at, v)| {
         let clock = props

@@ -313,7 +313,6 @@ impl Form {
                 })
             }
             Slot::Source(i, SourcePart::Id) => Some(&mut self.sources.get_mut(i)?.id),
-            Slot::Target(i, TargetPart::Source) => Some(&mut self.targets.get_mut(i)?.source),
             Slot::Target(i, TargetPart::Bound) => Some(&mut self.targets.get_mut(i)?.percent),
             _ => None,
         }
@@ -334,7 +333,17 @@ impl Form {
             self.custom_targets = true;
         }
         match edit {
+            Edit::Text(Slot::Target(i, TargetPart::Source), text) => {
+                if let Some(t) = self.targets.get_mut(i) {
+                    t.source_edited(&text);
+                }
+            }
             Edit::Text(slot, text) => {
+                if let Slot::Target(i, TargetPart::Bound) = slot {
+                    if let Some(t) = self.targets.get_mut(i) {
+                        t.bound_edited();
+                    }
+                }
                 if let Some(f) = self.pressure_mut(slot) {
                     f.edit(text);
                 } else if let Some(f) = self.length_mut(slot) {
@@ -406,6 +415,7 @@ impl Form {
             }
             Edit::TargetKind(i, kind) => {
                 if let Some(t) = self.targets.get_mut(i) {
+                    t.bound_edited();
                     t.kind = kind;
                 }
             }
@@ -478,6 +488,37 @@ mod tests {
         );
         form.apply(Edit::DefaultTargets);
         assert_eq!(form.to_case().unwrap().targets, None);
+    }
+
+    #[test]
+    fn a_target_the_core_refuses_is_kept_and_refused_in_the_cores_words() {
+        let mut case = Case::from_json(CASE_JSON).unwrap();
+        let mut two: TargetSpec = serde_json::from_str(
+            r#"{"organ": "whole_body", "metric": "inflow", "at_least": "60 mmHg", "at_least_percent_of_baseline": 80}"#,
+        )
+        .unwrap();
+        case.targets = Some(vec![two.clone()]);
+        let mut form = Form::from_case(&case);
+        assert_eq!(form.to_case().unwrap(), case, "nothing is dropped");
+        // The source typed into the row goes with it.
+        form.apply(Edit::Text(
+            Slot::Target(0, TargetPart::Source),
+            "unit".into(),
+        ));
+        two.citation = Some("unit".into());
+        assert_eq!(form.to_case().unwrap().targets, Some(vec![two]));
+        // A unit switch keeps both bounds; choosing a kind keeps one.
+        form.apply(Edit::PressureUnit(
+            Slot::Target(0, TargetPart::Bound),
+            PressureUnit::KPa,
+        ));
+        let kept = form.to_case().unwrap().targets.unwrap();
+        assert!(kept.first().unwrap().at_least_percent_of_baseline.is_some());
+        form.apply(Edit::TargetKind(0, BoundKind::PercentOfBaseline));
+        let chosen = form.to_case().unwrap().targets.unwrap();
+        let chosen = chosen.first().unwrap();
+        assert_eq!(chosen.at_least_percent_of_baseline, Some(80.0));
+        assert_eq!(chosen.at_least, None);
     }
 
     #[test]

@@ -12,6 +12,7 @@ use plumbline_core::organ::{Metric, Organ};
 use plumbline_core::reading::{Level, Method, Quantity};
 use plumbline_core::target::TargetSpec;
 use plumbline_core::units::{LengthUnit, PressureEntry, PressureUnit, QuantityTextError};
+use plumbline_core::usual::{first_level, method_for, unit_for};
 
 use serde::{Deserialize, Serialize};
 
@@ -176,39 +177,6 @@ impl SourceForm {
     }
 }
 
-/// The method a new reading starts with: how each is usually taken.
-fn usual_method(quantity: Quantity) -> Method {
-    match quantity {
-        Quantity::Icp => Method::Probe,
-        Quantity::Csf => Method::DrainScale,
-        Quantity::Iop => Method::Tonometer,
-        Quantity::Compartment => Method::Needle,
-        Quantity::Cvp
-        | Quantity::Iap
-        | Quantity::Lvedp
-        | Quantity::CprAorticRelaxation
-        | Quantity::CprRightAtrialRelaxation => Method::Transducer,
-    }
-}
-
-/// The unit a method's scale is read in.
-fn unit_for(method: Method) -> PressureUnit {
-    if method.reads_a_water_column() {
-        PressureUnit::CmH2O
-    } else {
-        PressureUnit::MmHg
-    }
-}
-
-/// A first level for a new reading: the core's usual reference, else the
-/// first landmark the quantity accepts (an eye, a limb).
-fn first_level(quantity: Quantity) -> Landmark {
-    quantity.usual_level().unwrap_or(match quantity {
-        Quantity::Iop => Landmark::EyeLeft,
-        _ => Landmark::CalfLeft,
-    })
-}
-
 /// One measured reading other than arterial.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct ReadingForm {
@@ -235,7 +203,7 @@ impl ReadingForm {
 
     /// A new, empty reading of `quantity`, taken the usual way.
     pub fn new(quantity: Quantity) -> Self {
-        let method = usual_method(quantity);
+        let method = method_for(quantity);
         ReadingForm {
             value: PressureText::empty(unit_for(method)),
             method,
@@ -355,6 +323,13 @@ pub struct TargetForm {
     pub percent: String,
     /// Where the target comes from, as typed.
     pub source: String,
+    /// The target as its document wrote it, when it sets no bound or more
+    /// than one: the row shows one bound, so the whole target is kept and
+    /// handed back to the core, which refuses it in the same words as for
+    /// a file, and nothing in it is dropped. A change to the row's bound or
+    /// kind is the clinician choosing one bound, and ends it.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub as_written: Option<TargetSpec>,
 }
 
 impl TargetForm {
@@ -372,6 +347,9 @@ impl TargetForm {
             (None, Some(p)) => (BoundKind::AtMost, Some(p)),
             (None, None) => (BoundKind::PercentOfBaseline, None),
         };
+        let bounds = usize::from(spec.at_least.is_some())
+            + usize::from(spec.at_most.is_some())
+            + usize::from(spec.at_least_percent_of_baseline.is_some());
         TargetForm {
             organ: spec.organ,
             metric,
@@ -381,8 +359,22 @@ impl TargetForm {
                 .at_least_percent_of_baseline
                 .map(number_text)
                 .unwrap_or_default(),
-            source: spec.source.clone().unwrap_or_default(),
+            source: spec.citation.clone().unwrap_or_default(),
+            as_written: (bounds != 1).then(|| spec.clone()),
         }
+    }
+
+    /// The bound or its kind was changed: the row's one bound is the target.
+    pub fn bound_edited(&mut self) {
+        self.as_written = None;
+    }
+
+    /// The source was changed to `text`; a target kept as written takes it.
+    pub fn source_edited(&mut self, text: &str) {
+        if let Some(spec) = &mut self.as_written {
+            spec.citation = Some(text.to_owned()).filter(|s| !s.trim().is_empty());
+        }
+        text.clone_into(&mut self.source);
     }
 
     /// A new floor on `metric` of `organ`, threshold still to be typed.
@@ -394,6 +386,7 @@ impl TargetForm {
             threshold: PressureText::empty(PressureUnit::MmHg),
             percent: String::new(),
             source: String::new(),
+            as_written: None,
         }
     }
 
@@ -404,6 +397,9 @@ impl TargetForm {
 
     /// The target for the case.
     pub fn spec(&self, i: usize, errors: &mut Errors) -> Option<TargetSpec> {
+        if let Some(spec) = &self.as_written {
+            return Some(spec.clone());
+        }
         let path = self.bound_path(i);
         let mut spec = TargetSpec {
             organ: self.organ,
@@ -411,7 +407,7 @@ impl TargetForm {
             at_least: None,
             at_most: None,
             at_least_percent_of_baseline: None,
-            source: Some(self.source.clone()).filter(|s| !s.trim().is_empty()),
+            citation: Some(self.source.clone()).filter(|s| !s.trim().is_empty()),
         };
         match self.kind {
             BoundKind::AtLeast => spec.at_least = Some(required(&self.threshold, &path, errors)?),
@@ -480,6 +476,33 @@ mod tests {
             let back = TargetForm::from_spec(&spec).spec(0, &mut errors).unwrap();
             assert_eq!(back, spec);
         }
+    }
+
+    #[test]
+    fn a_target_with_two_bounds_or_none_is_kept_whole_until_one_is_chosen() {
+        let spec: TargetSpec = serde_json::from_str(
+            r#"{"organ": "whole_body", "at_least": "60 mmHg", "at_least_percent_of_baseline": 80}"#,
+        )
+        .unwrap();
+        let mut form = TargetForm::from_spec(&spec);
+        let mut errors = Errors::default();
+        assert_eq!(form.spec(0, &mut errors), Some(spec.clone()));
+        // The source follows what is typed; the bounds stay.
+        form.source_edited("unit protocol");
+        let kept = form.spec(0, &mut errors).unwrap();
+        assert_eq!(kept.citation.as_deref(), Some("unit protocol"));
+        assert_eq!(kept.at_least_percent_of_baseline, Some(80.0));
+        form.bound_edited();
+        let chosen = form.spec(0, &mut errors).unwrap();
+        assert_eq!(chosen.at_least, spec.at_least);
+        assert_eq!(chosen.at_least_percent_of_baseline, None);
+        assert!(errors.is_empty());
+
+        let none: TargetSpec = serde_json::from_str(r#"{"organ": "brain"}"#).unwrap();
+        assert_eq!(
+            TargetForm::from_spec(&none).spec(0, &mut errors),
+            Some(none)
+        );
     }
 
     #[test]

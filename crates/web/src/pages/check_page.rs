@@ -7,6 +7,7 @@ use crate::components::case_json::CaseJson;
 use crate::components::caution::Caution;
 use crate::components::demo_notice::DemoNotice;
 use crate::components::figure_view::FigureView;
+use crate::components::hazards_panel::HazardsPanel;
 use crate::components::heights_table::HeightsTable;
 use crate::components::not_checked::NotCheckedList;
 use crate::components::organ_card::OrganCard;
@@ -25,7 +26,7 @@ use crate::components::theme_toggle::ThemeToggle;
 use crate::components::verdicts::Verdicts;
 use crate::components::warnings_panel::WarningsPanel;
 use crate::session::SessionAction;
-use crate::state::{missed_words, Action, Handle};
+use crate::state::{Action, Handle};
 
 /// Props of [`CheckPage`].
 #[derive(Properties, PartialEq)]
@@ -112,8 +113,7 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                     }
                     if let Some(c) = &checked {
                         <div class={classes!("pane", "pane-verdicts", stale.then_some("stale"))}>
-                            <Verdicts organs={c.report.organs.clone()} stale={stale}
-                                headline={missed_words(c.missed())} />
+                            <Verdicts summary={c.report.summary.clone()} stale={stale} />
                         </div>
                         <section class={classes!("pane", "pane-results", stale.then_some("stale"))}
                             aria-labelledby="h-organs">
@@ -123,6 +123,8 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                             }
                             <ReadingsSummary checked={c.clone()} />
                             { for c.report.organs.iter().map(|o| html! { <OrganCard organ={o.clone()} /> }) }
+                            <HazardsPanel venous_site={c.report.venous_site.clone()}
+                                drain={c.report.drain.clone()} />
                             <NotCheckedList organs={c.report.not_checked.clone()} />
                             <WarningsPanel cross_checks={c.report.cross_checks.clone()}
                                 warnings={c.report.warnings.clone()} />

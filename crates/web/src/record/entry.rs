@@ -11,26 +11,12 @@
 
 use plumbline_core::case::{Case, ChannelSpec, PositionChangeSpec, TimelineSpec};
 use plumbline_core::geometry::PositionSpec;
-use plumbline_core::record::elapsed_words;
+use plumbline_core::record::{case_readings, elapsed_words};
 use plumbline_core::units::PressureEntry;
 
 /// The readings of `case` one sample adds to `spec`: channel name and value.
 pub fn readings(case: &Case, spec: &TimelineSpec) -> Vec<(String, PressureEntry)> {
-    let mut all: Vec<(String, PressureEntry)> = Vec::new();
-    for a in &case.arterial {
-        for (part, value) in [
-            ("systolic", a.systolic),
-            ("diastolic", a.diastolic),
-            ("mean", a.mean),
-        ] {
-            if let Some(v) = value {
-                all.push((format!("{}.{part}", a.id), v));
-            }
-        }
-    }
-    for (q, r) in &case.readings {
-        all.push((q.key().to_owned(), r.value));
-    }
+    let all = case_readings(case);
     if spec.channels.is_empty() {
         return all;
     }

@@ -587,10 +587,23 @@ mod tests {
         let r = opened();
         assert!(r.file.is_none() && r.fit.is_empty());
         let a = r.analysis.as_ref().unwrap();
-        let cli = record::exposure_of(&record::import_into(&demo(), RECORD).unwrap()).unwrap();
-        assert_eq!(a.exposure, cli.0);
-        assert_eq!(a.trends.len(), 2, "CPP and MAP at the heart");
-        assert_eq!(a.trends[1].targets, vec![1, 2], "two targets on MAP");
+        let cli = record::Recorded::import(&demo(), RECORD, &Default::default()).unwrap();
+        assert_eq!(a.exposure, cli.exposure());
+        assert_eq!(
+            a.trends.len(),
+            3,
+            "CPP, MAP at brain level, MAP at the heart"
+        );
+        assert_eq!(
+            a.trends[1].targets,
+            vec![1, 2],
+            "two targets on MAP at brain level"
+        );
+        assert_eq!(
+            a.trends[2].targets,
+            vec![3, 4],
+            "two targets on MAP at the heart"
+        );
         assert!(a.channels.iter().any(|c| c.estimated));
         assert_eq!(r.start, demo().position);
         assert_eq!(r.opened.as_deref(), Some("beach-chair-record.csv"));
@@ -692,7 +705,7 @@ mod tests {
             demo().position,
             "the record starts in beach chair"
         );
-        let cli = record::exposure_of(&joined).unwrap().0;
+        let cli = record::Recorded::of_case(joined).unwrap().exposure();
         assert_eq!(r.analysis.as_ref().unwrap().exposure, cli);
         r.apply(RecordAction::RemoveChange(0), Some(&supine), false);
         assert!((cpp(&r) - before).abs() < 1e-9);
@@ -710,8 +723,8 @@ mod tests {
         assert!(r.pending && r.generation > g);
         r.apply(RecordAction::Analyse, Some(&demo()), false);
         assert!(!r.pending);
-        let map = &r.analysis.as_ref().unwrap().exposure.targets[1];
-        assert!(map.ignored_episodes > 0);
+        let targets = &r.analysis.as_ref().unwrap().exposure.targets;
+        assert!(targets.iter().any(|t| t.ignored_episodes > 0));
         assert!(r
             .analysis
             .as_ref()
@@ -734,8 +747,9 @@ mod tests {
     fn a_record_riding_in_the_form_moves_out_of_it() {
         let mut case = demo();
         case.timeline = Some(
-            record::import_into(&demo(), RECORD)
+            record::Recorded::import(&demo(), RECORD, &Default::default())
                 .unwrap()
+                .case
                 .timeline
                 .unwrap(),
         );

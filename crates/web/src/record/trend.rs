@@ -348,6 +348,11 @@ mod tests {
             metric: Metric::Inflow,
             label: "MAP at the heart",
             target: "MAP at the heart at least 65 mmHg".into(),
+            status: if at_least {
+                plumbline_core::target::Status::Below
+            } else {
+                plumbline_core::target::Status::Above
+            },
             threshold_mmhg: threshold,
             at_least,
             observed_min: 20.0,
