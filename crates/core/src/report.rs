@@ -44,7 +44,7 @@ pub struct Report {
     pub not_checked: Vec<NotChecked>,
     /// Agreement between arterial sources once at one level.
     pub cross_checks: Vec<CrossCheck>,
-    /// Required site readings across backrest angles.
+    /// The site readings to defend across backrest angles.
     pub sweeps: Vec<Sweep>,
     /// The patient's height as used: stated, or assumed when none was given.
     pub patient_height: Option<PatientHeight>,

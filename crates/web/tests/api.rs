@@ -92,9 +92,10 @@ fn every_problem_comes_back_with_its_field() {
         Value::from(first.kind.to_string())
     );
 
-    // A case the core's scene refuses (no height for a position) names it too.
-    let text = r#"{"format": "plumbline-case", "version": 1, "position": {"posture": "supine"},
-        "arterial": [{"id": "line", "method": "transducer", "level": "heart", "mean": "80 mmHg"}]}"#;
+    // A case the core's scene refuses (diastolic above systolic) names it too.
+    let text = r#"{"format": "plumbline-case", "version": 1,
+        "arterial": [{"id": "line", "method": "transducer", "level": "heart",
+                      "systolic": "80 mmHg", "diastolic": "120 mmHg"}]}"#;
     let answer = seen(&check_js(object(text)));
     let core = check::check_json(text).unwrap_err();
     let fields: Vec<&str> = core.iter().map(|e| e.field.as_str()).collect();

@@ -287,7 +287,7 @@ impl<'a> Ctx<'a> {
         }
     }
 
-    pub(super) fn required(
+    pub(super) fn reading_needed(
         &self,
         steps: &mut Vec<Step>,
         assumed: &mut Vec<Quantity>,

@@ -219,7 +219,7 @@ pub fn metric_in(
                 .map(|lead| (lead, true))
         }
         Lead::Reading(q) => ctx
-            .required(&mut steps, &mut assumed, q, frame, here)
+            .reading_needed(&mut steps, &mut assumed, q, frame, here)
             .map(|lead| (lead, q == Quantity::CprAorticRelaxation)),
     };
     if formula.back.is_empty() {
@@ -282,7 +282,7 @@ fn both<A, B>(a: Result<A, Missing>, b: Result<B, Missing>) -> Result<(A, B), Mi
     }
 }
 
-/// The effective back pressure: the highest candidate. Required candidates
+/// The effective back pressure: the highest candidate. Needed candidates
 /// must be present; of optional-only lists, at least one.
 fn waterfall(
     ctx: &Ctx<'_>,
@@ -295,13 +295,13 @@ fn waterfall(
     let mut found = Vec::new();
     let mut terms = Vec::new();
     let mut missing = Vec::new();
-    for (q, required) in candidates {
+    for (q, needed) in candidates {
         match ctx.reading_at(steps, assumed, *q, frame, organ) {
             Ok(Some((p, term))) => {
                 found.push((*q, p));
                 terms.push(term);
             }
-            Ok(None) if *required => missing.push(missing_reading(*q)),
+            Ok(None) if *needed => missing.push(missing_reading(*q)),
             Ok(None) => {}
             Err(m) => missing.extend(m.0),
         }

@@ -47,7 +47,7 @@ pub(super) fn population(
         missing.push("an arterial reading taken on an upper arm".to_owned());
     }
     let iop = back.first().map_or(Quantity::Iop, |(q, _)| *q);
-    let iop = ctx.required(&mut steps, &mut assumed, iop, Frame::OrganLevel, eye);
+    let iop = ctx.reading_needed(&mut steps, &mut assumed, iop, Frame::OrganLevel, eye);
     let (Some(i), Ok((iop, back)), true) = (arm, iop.clone(), missing.is_empty()) else {
         if let Err(m) = iop {
             missing.extend(m.0);

@@ -83,7 +83,7 @@ pub struct Arterial {
     pub mean: Option<(Pressure, MeanBasis)>,
     /// Accuracy half-width, if given instead of the method's.
     pub accuracy: Option<Pressure>,
-    /// The unit it was entered in, for showing required readings the same way.
+    /// The unit it was entered in, for showing the values to defend the same way.
     pub unit: PressureUnit,
 }
 
