@@ -57,7 +57,7 @@ function worstSaved(text) {
 }
 
 /** The app's note of what it is opening, as it writes it. */
-const note = (link) => JSON.stringify({ format: 'plumbline-opening', version: 1, ...(link ? { link } : {}) });
+const note = (link) => (link ? `plumbline-opening 1\n${link}` : 'plumbline-opening 1');
 
 /** Downloads the copy a notice offers; resolves to its text. */
 async function downloaded(page, notice) {

@@ -33,40 +33,29 @@ pub const CHECK: Kind = Kind {
     what: "a check",
 };
 
-/// The note of what the app is opening: `plumbline-opening`, version 1.
-pub const OPENING: Kind = Kind {
-    format: "plumbline-opening",
-    version: 1,
-    what: "a note of what was opening",
-};
-
-#[derive(Serialize)]
-struct OpeningFields<'a> {
-    #[serde(skip_serializing_if = "Option::is_none")]
-    link: Option<&'a str>,
-}
+/// The first line of the note of what the app is opening; a link's
+/// fragment follows on the second. Plain text: the note is ours alone
+/// and lives only from a start to its first render.
+pub const OPENING_HEAD: &str = "plumbline-opening 1";
 
 /// The note kept while `opening` is opened.
 pub fn encode_opening(opening: &Opening) -> String {
-    OPENING.seal(&OpeningFields {
-        link: match opening {
-            Opening::Saved => None,
-            Opening::Link(fragment) => Some(fragment),
-        },
-    })
+    match opening {
+        Opening::Saved => OPENING_HEAD.to_owned(),
+        Opening::Link(fragment) => format!("{OPENING_HEAD}\n{fragment}"),
+    }
 }
 
 /// What a note says was opening; a damaged note counts as the saved check
 /// (the cautious reading: it is set aside, kept for download).
 pub fn decode_opening(text: &str) -> Opening {
-    OPENING
-        .open(text)
-        .ok()
-        .and_then(|mut fields| match fields.remove("link") {
-            Some(Value::String(link)) => Some(Opening::Link(link)),
-            _ => None,
-        })
-        .unwrap_or(Opening::Saved)
+    match text
+        .strip_prefix(OPENING_HEAD)
+        .and_then(|rest| rest.strip_prefix('\n'))
+    {
+        Some(fragment) => Opening::Link(fragment.to_owned()),
+        None => Opening::Saved,
+    }
 }
 
 /// A check read back from the device.
@@ -359,6 +348,7 @@ mod tests {
             decode_opening(r#"{"format":"plumbline-opening","version":1,"link":3}"#),
             Opening::Saved
         );
+        assert_eq!(decode_opening("plumbline-opening 9\n#p1.x"), Opening::Saved);
     }
 
     #[test]
