@@ -225,7 +225,6 @@ mod tests {
     #![allow(clippy::unwrap_used, clippy::indexing_slicing)]
     use super::*;
     use crate::form::{Edit, Slot, SourcePart};
-    use plumbline_core::case::ChannelSpec;
     use plumbline_core::demo::CASE_JSON;
     use plumbline_core::units::PressureUnit;
 
@@ -252,17 +251,7 @@ mod tests {
 
     /// A record of 1000 samples riding in the demo's case.
     fn demo_with_record() -> Case {
-        let mut case = Case::from_json(CASE_JSON).unwrap();
-        case.timeline = Some(TimelineSpec {
-            channels: vec![ChannelSpec {
-                channel: "radial line.mean".into(),
-                unit: PressureUnit::MmHg,
-                t_s: (0..1000).map(f64::from).collect(),
-                values: vec![74.0; 1000],
-            }],
-            ..TimelineSpec::default()
-        });
-        case
+        crate::record::demo_with_record(1000, 74.0)
     }
 
     #[test]

@@ -255,8 +255,6 @@ pub(crate) mod testing {
     #![allow(clippy::unwrap_used)]
     use super::*;
     use crate::form::{Slot, SourcePart};
-    use plumbline_core::case::{ChannelSpec, TimelineSpec};
-    use plumbline_core::units::PressureUnit;
 
     /// `action` applied by the reducer.
     pub fn act(state: State, action: SessionAction) -> State {
@@ -271,16 +269,7 @@ pub(crate) mod testing {
 
     /// The demo with a record of 600 samples, as the screen holds it.
     pub fn with_record() -> State {
-        let mut case = Case::from_json(CASE_JSON).unwrap();
-        case.timeline = Some(TimelineSpec {
-            channels: vec![ChannelSpec {
-                channel: "radial line.mean".into(),
-                unit: PressureUnit::MmHg,
-                t_s: (0..600).map(f64::from).collect(),
-                values: vec![70.0; 600],
-            }],
-            ..TimelineSpec::default()
-        });
+        let case = crate::record::demo_with_record(600, 70.0);
         let mut state = State::demo(Theme::Device);
         state.form = Form::from_case(&case);
         state.recheck();
