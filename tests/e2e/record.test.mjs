@@ -301,7 +301,7 @@ test('a position change changes the exposure as the CLI predicts', async () => {
   await p.getByRole('button', { name: 'Remove position change 2 at 0:10:00' }).click();
   await until(async () => (await cpp.locator('.x-area').textContent()) === before, 'the first numbers back');
   const series = await download(page, 'Download organ-level series (CSV)');
-  assert.equal(series.split('\n')[0], 'elapsed_s,brain.perfusion [mmHg],whole_body.inflow [mmHg]');
+  assert.equal(series.split('\n')[0], 'elapsed_s,brain.perfusion [mmHg],brain.inflow [mmHg],whole_body.inflow [mmHg]');
   const now = await download(page, 'Download case with record (JSON)');
   assert.equal(series, seriesWithCli(demoCsv, now), 'the series is the CLI\'s --series');
   // Downloads are made on the device: nothing but the page's own blobs.

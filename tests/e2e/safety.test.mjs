@@ -59,7 +59,9 @@ test('the brain verdict and the value to defend are in print', async () => {
   await page.emulateMedia({ media: 'print' });
   const headline = page.getByText(report.summary.headline, { exact: true }).first();
   assert.ok(await headline.isVisible(), 'the headline prints');
-  const defend = page.getByText(`Defend ${brain.defend}`).first();
+  const defend = page.getByText(`To meet it now: ${brain.defend}`).first();
   assert.ok(await defend.isVisible(), 'the value to defend prints');
+  const verdict = page.locator('section.organ').filter({ hasText: 'Brain' }).getByText('BELOW').first();
+  assert.ok(await verdict.isVisible(), 'the brain verdict prints');
   await context.close();
 });

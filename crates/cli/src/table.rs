@@ -167,7 +167,8 @@ fn write_report(out: &mut String, r: &Report) -> std::fmt::Result {
 
     if let Some(site) = &r.venous_site {
         writeln!(out, "Operative site")?;
-        writeln!(out, "  {}", site.words)?;
+        let mark = if site.alarm { "! " } else { "" };
+        writeln!(out, "  {mark}{}", site.words)?;
         writeln!(out)?;
     }
     if let Some(drain) = &r.drain {

@@ -514,7 +514,7 @@ mod tests {
 
     fn field_of(text: &str) -> String {
         let errors = Case::from_json(text).unwrap_err();
-        let field = errors.iter().next().unwrap().field.clone();
+        let field = errors.iter().next().unwrap().field().to_owned();
         field
     }
 
@@ -522,7 +522,7 @@ mod tests {
     fn syntax_errors_carry_line_and_column() {
         let errors = Case::from_json("{\n  \"format\": ").unwrap_err();
         let first = errors.iter().next().unwrap();
-        assert!(matches!(first.kind, ErrorKind::Syntax { line: 2, .. }));
+        assert!(matches!(first.kind(), ErrorKind::Syntax { line: 2, .. }));
     }
 
     #[test]
@@ -532,7 +532,7 @@ mod tests {
         assert_eq!(field_of(r#"{"format": "plumbline-case"}"#), "version");
         let errors = Case::from_json(r#"{"format": "plumbline-case", "version": 9}"#).unwrap_err();
         assert!(matches!(
-            errors.iter().next().unwrap().kind,
+            errors.iter().next().unwrap().kind(),
             ErrorKind::UnsupportedVersion { found: 9, .. }
         ));
         assert_eq!(field_of("[]"), "");

@@ -12,11 +12,8 @@ use serde::Serialize;
 /// One problem with the input, and the field it is in.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct Error {
-    /// Where the problem is, as a path into the case document
-    /// (`readings.icp.value`); empty for the document as a whole.
-    pub field: String,
-    /// What is wrong.
-    pub kind: ErrorKind,
+    field: String,
+    kind: ErrorKind,
 }
 
 /// What is wrong with a field.
@@ -82,6 +79,27 @@ pub enum ErrorKind {
         /// The name that was not found.
         name: String,
     },
+    /// A record channel that names no reading of the case.
+    UnknownChannel {
+        /// The channel as written.
+        name: String,
+        /// The channels the case offers, in words.
+        offered: String,
+    },
+    /// A text too short or too long (a source's id, a target's source).
+    Length {
+        /// What the text is, in words.
+        what: String,
+        /// The fewest characters it may have.
+        min: usize,
+        /// The most.
+        max: usize,
+    },
+    /// A clock time that cannot be read.
+    ClockTime {
+        /// The text as written.
+        text: String,
+    },
     /// A setting that does not apply to the chosen position or method.
     NotApplicable {
         /// Why it does not apply.
@@ -100,6 +118,22 @@ pub enum ErrorKind {
 }
 
 impl Error {
+    /// Where the problem is, as a path into the case document
+    /// (`readings.icp.value`); empty for the document as a whole.
+    pub fn field(&self) -> &str {
+        &self.field
+    }
+
+    /// What is wrong.
+    pub fn kind(&self) -> &ErrorKind {
+        &self.kind
+    }
+
+    /// What is wrong, as one sentence without the field.
+    pub fn message(&self) -> String {
+        self.kind.to_string()
+    }
+
     /// A new error about `field`.
     pub fn new(field: impl Into<String>, kind: ErrorKind) -> Self {
         Error {
@@ -175,6 +209,18 @@ impl fmt::Display for ErrorKind {
             ErrorKind::UnknownReference { name } => {
                 write!(f, "'{name}' does not name anything in this case")
             }
+            ErrorKind::UnknownChannel { name, offered } => {
+                write!(f, "'{name}' is not a channel of this case; {offered}")
+            }
+            ErrorKind::Length { what, min, max } if *min <= 1 => {
+                write!(f, "{what} of at most {max} characters is needed")
+            }
+            ErrorKind::Length { what, min, max } => {
+                write!(f, "{what} of {min}-{max} characters is needed")
+            }
+            ErrorKind::ClockTime { text } => {
+                write!(f, "'{text}' is not a clock time like 08:15:00")
+            }
             ErrorKind::OverLimit { found, what, max } => {
                 write!(f, "{found} {what}; at most {max} are accepted")
             }
@@ -197,12 +243,27 @@ impl std::error::Error for Error {}
 /// Every problem found in one input, in the order of the document.
 #[derive(Clone, Debug, Default, PartialEq, Serialize)]
 #[serde(transparent)]
-pub struct Errors(pub Vec<Error>);
+pub struct Errors(Vec<Error>);
 
 impl Errors {
     /// Adds a problem.
     pub fn push(&mut self, error: Error) {
         self.0.push(error);
+    }
+
+    /// Adds every problem of `other`, in order.
+    pub fn extend(&mut self, other: Errors) {
+        self.0.extend(other.0);
+    }
+
+    /// How many problems were found.
+    pub fn len(&self) -> usize {
+        self.0.len()
+    }
+
+    /// The first problem, if any.
+    pub fn first(&self) -> Option<&Error> {
+        self.0.first()
     }
 
     /// Whether no problem was found.
@@ -233,6 +294,21 @@ impl Errors {
 impl From<Error> for Errors {
     fn from(error: Error) -> Self {
         Errors(vec![error])
+    }
+}
+
+impl FromIterator<Error> for Errors {
+    fn from_iter<I: IntoIterator<Item = Error>>(iter: I) -> Self {
+        Errors(iter.into_iter().collect())
+    }
+}
+
+impl IntoIterator for Errors {
+    type Item = Error;
+    type IntoIter = std::vec::IntoIter<Error>;
+
+    fn into_iter(self) -> Self::IntoIter {
+        self.0.into_iter()
     }
 }
 

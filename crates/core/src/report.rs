@@ -450,6 +450,9 @@ pub struct VenousSite {
     pub cvp_for_zero_mmhg: f64,
     /// Whether it is below atmospheric; `None` without a CVP.
     pub below_atmospheric: Option<bool>,
+    /// Whether to show it as a warning: below atmospheric, or well above
+    /// the heart with no CVP to tell.
+    pub alarm: bool,
     /// The finding in words.
     pub words: String,
 }

@@ -485,7 +485,7 @@ mod tests {
             citation: None,
         };
         let errors = spec.resolve("targets[2]").unwrap_err();
-        assert!(errors.iter().any(|e| e.field == "targets[2].metric"));
+        assert!(errors.iter().any(|e| e.field() == "targets[2].metric"));
     }
 
     #[test]

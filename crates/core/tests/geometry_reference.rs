@@ -578,7 +578,7 @@ fn out_of_range_angles_and_sizes_name_their_field() {
         assert!(
             errors
                 .iter()
-                .any(|e| e.field == field && !e.to_string().is_empty()),
+                .any(|e| e.field() == field && !e.to_string().is_empty()),
             "{pointer}: expected an error on {field}, got\n{errors}"
         );
     }
@@ -590,13 +590,13 @@ fn out_of_range_angles_and_sizes_name_their_field() {
                       "position": { "posture": "supine", "tilt_deg": 50 }, "mean": "90 mmHg" },
     }));
     assert!(
-        errors.iter().any(|e| e.field == "position.backrest_deg"),
+        errors.iter().any(|e| e.field() == "position.backrest_deg"),
         "{errors}"
     );
     assert!(
         errors
             .iter()
-            .any(|e| e.field == "baseline.position.tilt_deg"),
+            .any(|e| e.field() == "baseline.position.tilt_deg"),
         "{errors}"
     );
 }

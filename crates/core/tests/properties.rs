@@ -666,14 +666,14 @@ proptest! {
             Ok(_) => return Err(TestCaseError::fail(format!("{name} = {bad} accepted"))),
             Err(e) => e,
         };
-        prop_assert!(errors.iter().any(|e| e.field == field), "{}", errors);
+        prop_assert!(errors.iter().any(|e| e.field() == field), "{}", errors);
         // The same through a whole case.
         let text = case(json!({ "patient": { "height": "170 cm" }, "position": spec }));
         let errors = match Case::from_json(&text).and_then(|c| plumbline_core::check::check_case(&c)) {
             Ok(_) => return Err(TestCaseError::fail(format!("{text} accepted"))),
             Err(e) => e,
         };
-        prop_assert!(errors.iter().any(|e| e.field == field && !e.to_string().is_empty()), "{}", errors);
+        prop_assert!(errors.iter().any(|e| e.field() == field && !e.to_string().is_empty()), "{}", errors);
     }
 
     #[test]
@@ -685,7 +685,7 @@ proptest! {
             Ok(_) => return Err(TestCaseError::fail(format!("{body} cm accepted"))),
             Err(e) => e,
         };
-        prop_assert!(errors.iter().any(|e| e.field == "patient.height"), "{}", errors);
+        prop_assert!(errors.iter().any(|e| e.field() == "patient.height"), "{}", errors);
     }
 }
 

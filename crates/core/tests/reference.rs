@@ -543,7 +543,7 @@ fn lumbar_drain_needs_its_level_stated() {
     assert!(
         errors
             .iter()
-            .any(|e| e.field.starts_with("readings.csf") && e.to_string().contains("level")),
+            .any(|e| e.field().starts_with("readings.csf") && e.to_string().contains("level")),
         "{errors}"
     );
 }

@@ -34,10 +34,11 @@ fn well_formed(errors: &Errors) -> Result<(), String> {
         return Err("the errors print as nothing".into());
     }
     for e in errors.iter() {
-        if e.kind.to_string().trim().is_empty() || e.to_string().trim().is_empty() {
+        if e.kind().to_string().trim().is_empty() || e.to_string().trim().is_empty() {
             return Err(format!(
                 "an empty message on field '{}': {:?}",
-                e.field, e.kind
+                e.field(),
+                e.kind()
             ));
         }
     }
@@ -548,7 +549,7 @@ fn hostile_documents_are_refused_with_a_message() {
     assert!(
         errors
             .iter()
-            .any(|e| matches!(e.kind, ErrorKind::UnsupportedVersion { .. })),
+            .any(|e| matches!(e.kind(), ErrorKind::UnsupportedVersion { .. })),
         "{errors}"
     );
 }

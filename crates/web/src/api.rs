@@ -56,8 +56,8 @@ fn problems(errors: &Errors) -> Vec<Problem> {
     errors
         .iter()
         .map(|e| Problem {
-            field: e.field.clone(),
-            message: e.kind.to_string(),
+            field: e.field().to_owned(),
+            message: e.kind().to_string(),
         })
         .collect()
 }

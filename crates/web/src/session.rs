@@ -284,8 +284,8 @@ pub fn refusal(errors: &Errors) -> String {
         .iter()
         .take(3)
         .map(|e| {
-            let text = if e.field == "link" {
-                e.kind.to_string()
+            let text = if e.field() == "link" {
+                e.kind().to_string()
             } else {
                 e.to_string()
             };

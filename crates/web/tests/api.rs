@@ -83,14 +83,8 @@ fn every_problem_comes_back_with_its_field() {
     assert!(answer.get("report").is_none());
     let core = Case::from_json(text).unwrap_err();
     let first = core.iter().next().unwrap();
-    assert_eq!(
-        answer["errors"][0]["field"],
-        Value::from(first.field.as_str())
-    );
-    assert_eq!(
-        answer["errors"][0]["message"],
-        Value::from(first.kind.to_string())
-    );
+    assert_eq!(answer["errors"][0]["field"], Value::from(first.field()));
+    assert_eq!(answer["errors"][0]["message"], Value::from(first.message()));
 
     // A case the core's scene refuses (diastolic above systolic) names it too.
     let text = r#"{"format": "plumbline-case", "version": 1,
@@ -98,7 +92,7 @@ fn every_problem_comes_back_with_its_field() {
                       "systolic": "80 mmHg", "diastolic": "120 mmHg"}]}"#;
     let answer = seen(&check_js(object(text)));
     let core = check::check_json(text).unwrap_err();
-    let fields: Vec<&str> = core.iter().map(|e| e.field.as_str()).collect();
+    let fields: Vec<&str> = core.iter().map(|e| e.field()).collect();
     let got: Vec<&str> = answer["errors"]
         .as_array()
         .unwrap()

@@ -4,7 +4,6 @@
 //! bed has moved under its chamber.
 
 use super::sweep::SWEEP_ANGLES_DEG;
-use crate::error::Warning;
 use crate::evaluate::Ctx;
 use crate::fluid::Fluid;
 use crate::geometry::{self, Lie};
@@ -20,8 +19,8 @@ const AIR_ENTRY: &str = "a gradient of about 5 cmH2O to the right atrium is enou
     et al., Anesthesiology 2007, from memory";
 
 /// The venous pressure at the operative site from CVP, or what CVP would
-/// keep it at atmospheric; a warning when the site may be below it.
-pub(super) fn venous_site(ctx: &Ctx<'_>) -> Option<(VenousSite, Option<Warning>)> {
+/// keep it at atmospheric, with an alarm when the site may be below it.
+pub(super) fn venous_site(ctx: &Ctx<'_>) -> Option<VenousSite> {
     let scene = ctx.scene();
     let (site, chosen) = scene.operative_site?;
     let height = ctx.height(site)?;
@@ -74,10 +73,9 @@ pub(super) fn venous_site(ctx: &Ctx<'_>) -> Option<(VenousSite, Option<Warning>)
             None,
             None,
             format!(
-                "{} is {h:.0} cm above the heart: venous pressure there is below atmospheric \
-                 unless CVP exceeds {} mmHg ({} cmH2O), and an open vein there can entrain air \
-                 ({AIR_ENTRY}).",
-                capital(&which),
+                "{}: venous pressure there is below atmospheric unless CVP exceeds {} mmHg ({} \
+                 cmH2O), and an open vein there can entrain air ({AIR_ENTRY}).",
+                capital(&above),
                 whole(cvp_for_zero),
                 whole(PressureUnit::CmH2O.value(column(blood, height)))
             ),
@@ -91,21 +89,17 @@ pub(super) fn venous_site(ctx: &Ctx<'_>) -> Option<(VenousSite, Option<Warning>)
             ),
         ),
     };
-    let warn = (below == Some(true) || (venous.is_none() && h > 5.0))
-        .then(|| Warning::new("operative_site", words.clone()));
-    Some((
-        VenousSite {
-            site,
-            label,
-            chosen,
-            above_heart_cm: h,
-            venous_mmhg: venous,
-            cvp_for_zero_mmhg: cvp_for_zero,
-            below_atmospheric: below,
-            words,
-        },
-        warn,
-    ))
+    Some(VenousSite {
+        site,
+        label,
+        chosen,
+        above_heart_cm: h,
+        venous_mmhg: venous,
+        cvp_for_zero_mmhg: cvp_for_zero,
+        below_atmospheric: below,
+        alarm: below == Some(true) || (venous.is_none() && h > 5.0),
+        words,
+    })
 }
 
 fn capital(text: &str) -> String {

@@ -19,7 +19,7 @@ pub(crate) use targets::threshold;
 
 use crate::case::{Case, VERSION};
 use crate::error::{Errors, Warning};
-use crate::evaluate::{self, metric_in, organ_place, table, Ctx, Input, Missing, Value};
+use crate::evaluate::{self, metric_in, needs, organ_place, table, Ctx, Input, Value};
 use crate::fluid::Fluid;
 use crate::geometry;
 use crate::landmark::Landmark;
@@ -75,11 +75,11 @@ pub fn check(scene: &Scene) -> Report {
         let place = organ_place(&ctx, organ);
         let (place, height) = match place.map(|p| (p, ctx.place_height(p))) {
             Ok((p, Ok(h))) => (p, h),
-            Ok((_, Err(Missing(needs)))) | Err(Missing(needs)) => {
+            Ok((_, Err(errors))) | Err(errors) => {
                 not_checked.push(NotChecked {
                     organ,
                     label: organ.label(),
-                    needs,
+                    needs: needs(&errors),
                 });
                 continue;
             }
@@ -91,7 +91,7 @@ pub fn check(scene: &Scene) -> Report {
                 Ok(value) => {
                     metrics.push(metric_report(&ctx, &shifts, organ, metric, place, value))
                 }
-                Err(Missing(needs)) => missing.push(MissingMetric {
+                Err(errors) => missing.push(MissingMetric {
                     metric,
                     label: organ.metric_label(metric),
                     targets: scene
@@ -100,7 +100,7 @@ pub fn check(scene: &Scene) -> Report {
                         .filter(|t| t.organ == organ && t.metric == metric)
                         .map(|t| t.describe())
                         .collect(),
-                    needs,
+                    needs: needs(&errors),
                 }),
             }
         }
@@ -144,10 +144,7 @@ pub fn check(scene: &Scene) -> Report {
         });
     }
 
-    let venous_site = hazards::venous_site(&ctx).map(|(site, warning)| {
-        warnings.extend(warning);
-        site
-    });
+    let venous_site = hazards::venous_site(&ctx);
     Report {
         format: RESULT_FORMAT,
         version: VERSION,

@@ -2,7 +2,8 @@
 //! baseline at the same level), the status and margin, and the reading each
 //! site must show to meet it now, rounded the safe way.
 
-use crate::evaluate::{self, baseline_inflow, Ctx, Input, Missing, Term, Value};
+use crate::error::Errors;
+use crate::evaluate::{self, baseline_inflow, needs, Ctx, Input, Term, Value};
 use crate::organ::{Metric, Organ};
 use crate::reading::Component;
 use crate::report::{Defend, StepReport, TargetReport};
@@ -20,7 +21,7 @@ pub(crate) fn threshold(
     ctx: &Ctx<'_>,
     place: Place,
     target: &Target,
-) -> Result<(Pressure, bool, Vec<StepReport>), Missing> {
+) -> Result<(Pressure, bool, Vec<StepReport>), Errors> {
     match target.bound {
         Bound::AtLeast(p) => Ok((p, true, Vec::new())),
         Bound::AtMost(p) => Ok((p, false, Vec::new())),
@@ -60,8 +61,12 @@ pub(crate) struct Judged<'v> {
 pub(crate) fn target_report(ctx: &Ctx<'_>, j: &Judged<'_>, target: &Target) -> TargetReport {
     let (thr, at_least, threshold_steps) = match threshold(ctx, j.place, target) {
         Ok(t) => t,
-        Err(Missing(needs)) => {
-            return not_evaluated(target, j.zero, format!("needs {}", needs.join("; ")));
+        Err(errors) => {
+            return not_evaluated(
+                target,
+                j.zero,
+                format!("needs {}", needs(&errors).join("; ")),
+            );
         }
     };
     let verdict = judge(j.value.value, thr, at_least);

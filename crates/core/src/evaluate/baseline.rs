@@ -2,7 +2,8 @@
 //! organ's pressure now with the same pressure at the same landmark in the
 //! position the baseline was taken in.
 
-use super::{mm, Ctx, Missing, Step};
+use super::{mm, need, Ctx, Step};
+use crate::error::Errors;
 use crate::fluid::Fluid;
 use crate::scene::Place;
 use crate::units::column;
@@ -12,20 +13,27 @@ use crate::units::column;
 ///
 /// # Errors
 /// No baseline, or a height that cannot be worked out.
-pub fn baseline_inflow(ctx: &Ctx<'_>, to: Place) -> Result<Step, Missing> {
+pub fn baseline_inflow(ctx: &Ctx<'_>, to: Place) -> Result<Step, Errors> {
     let scene = ctx.scene();
-    let baseline = scene
-        .baseline
-        .as_ref()
-        .ok_or_else(|| Missing::one("a baseline (baseline) for targets relative to it"))?;
-    let heights = scene
-        .baseline_heights()
-        .ok_or_else(|| Missing::one("the patient's height, to place the baseline's position"))?;
+    let baseline = scene.baseline.as_ref().ok_or_else(|| {
+        need(
+            "baseline",
+            "a baseline (baseline) for targets relative to it",
+        )
+    })?;
+    let heights = scene.baseline_heights().ok_or_else(|| {
+        need(
+            "patient.height",
+            "the patient's height, to place the baseline's position",
+        )
+    })?;
     let height = |place: Place| match place {
-        Place::At(l) => heights
-            .get(&l)
-            .copied()
-            .ok_or_else(|| Missing::one(format!("the height of the {}", l.label()))),
+        Place::At(l) => heights.get(&l).copied().ok_or_else(|| {
+            need(
+                format!("heights.{l}"),
+                format!("the height of the {}", l.label()),
+            )
+        }),
         Place::Height { height, .. } => Ok(height),
     };
     let from = height(baseline.place)?;

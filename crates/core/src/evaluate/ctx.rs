@@ -5,7 +5,8 @@
 
 use std::collections::BTreeMap;
 
-use super::{Frame, Input, Missing, Spot, Step, Term};
+use super::{need, Frame, Input, Spot, Step, Term};
+use crate::error::Errors;
 use crate::fluid::Fluid;
 use crate::landmark::Landmark;
 use crate::reading::{Component, Quantity};
@@ -67,12 +68,15 @@ impl<'a> Ctx<'a> {
         }
     }
 
-    pub(super) fn landmark_height(&self, landmark: Landmark) -> Result<Length, Missing> {
+    pub(super) fn landmark_height(&self, landmark: Landmark) -> Result<Length, Errors> {
         self.height(landmark).ok_or_else(|| {
-            Missing::one(format!(
-                "the height of the {} (measure it or give the position and patient height)",
-                landmark.label()
-            ))
+            need(
+                format!("heights.{landmark}"),
+                format!(
+                    "the height of the {} (measure it or give the position and patient height)",
+                    landmark.label()
+                ),
+            )
         })
     }
 
@@ -80,14 +84,14 @@ impl<'a> Ctx<'a> {
     ///
     /// # Errors
     /// A landmark with no height (no position and no measurement).
-    pub fn place_height(&self, place: Place) -> Result<Length, Missing> {
+    pub fn place_height(&self, place: Place) -> Result<Length, Errors> {
         match place {
             Place::At(landmark) => self.landmark_height(landmark),
             Place::Height { height, .. } => Ok(height),
         }
     }
 
-    pub(super) fn spot(&self, place: Place) -> Result<Spot, Missing> {
+    pub(super) fn spot(&self, place: Place) -> Result<Spot, Errors> {
         Ok(Spot {
             place,
             height: self.place_height(place)?,
@@ -157,11 +161,11 @@ impl<'a> Ctx<'a> {
         )
     }
 
-    pub(super) fn source(&self, requested: Option<usize>) -> Result<usize, Missing> {
+    pub(super) fn source(&self, requested: Option<usize>) -> Result<usize, Errors> {
         requested
             .or(self.scene.primary)
             .filter(|i| *i < self.scene.arterial.len())
-            .ok_or_else(|| Missing::one("an arterial pressure (a line or a cuff)"))
+            .ok_or_else(|| need("arterial", "an arterial pressure (a line or a cuff)"))
     }
 
     /// An arterial component of source `i`, carried to `to`.
@@ -171,14 +175,17 @@ impl<'a> Ctx<'a> {
         i: usize,
         component: Component,
         to: Option<Spot>,
-    ) -> Result<(Pressure, Term), Missing> {
+    ) -> Result<(Pressure, Term), Errors> {
         let a = self
             .scene
             .arterial
             .get(i)
-            .ok_or_else(|| Missing::one("an arterial pressure (a line or a cuff)"))?;
+            .ok_or_else(|| need("arterial", "an arterial pressure (a line or a cuff)"))?;
         let value = a.component(component).ok_or_else(|| {
-            Missing::one(format!("the {} pressure of {}", component.label(), a.id))
+            need(
+                format!("arterial[{i}].{}", component.label()),
+                format!("the {} pressure of {}", component.label(), a.id),
+            )
         })?;
         let from = self.spot(a.place)?;
         self.note(
@@ -220,7 +227,7 @@ impl<'a> Ctx<'a> {
         quantity: Quantity,
         frame: Frame,
         organ: Spot,
-    ) -> Result<Option<(Pressure, Term)>, Missing> {
+    ) -> Result<Option<(Pressure, Term)>, Errors> {
         let Some(r) = self.scene.readings.get(&quantity) else {
             return Ok(None);
         };
@@ -254,11 +261,10 @@ impl<'a> Ctx<'a> {
                 };
                 Ok(Some((r.value, term)))
             } else {
-                Err(Missing::one(format!(
-                    "{} taken at {}",
-                    quantity.label(),
-                    organ.words()
-                )))
+                Err(need(
+                    format!("readings.{quantity}.level"),
+                    format!("{} taken at {}", quantity.label(), organ.words()),
+                ))
             };
         };
         let to = match frame {
@@ -279,7 +285,7 @@ impl<'a> Ctx<'a> {
     /// Where a pressure is referred to by convention: its usual zero (the
     /// tragus for ICP, the iliac crest for IAP, the heart for CVP); a CSF
     /// drain as read at its own zero.
-    pub(super) fn conventional_zero(&self, quantity: Quantity) -> Result<Option<Spot>, Missing> {
+    pub(super) fn conventional_zero(&self, quantity: Quantity) -> Result<Option<Spot>, Errors> {
         match quantity.usual_level() {
             Some(_) if quantity == Quantity::Csf => Ok(None),
             Some(landmark) => self.spot(Place::At(landmark)).map(Some),
@@ -294,9 +300,9 @@ impl<'a> Ctx<'a> {
         quantity: Quantity,
         frame: Frame,
         organ: Spot,
-    ) -> Result<(Pressure, Term), Missing> {
+    ) -> Result<(Pressure, Term), Errors> {
         self.reading_at(steps, assumed, quantity, frame, organ)?
-            .ok_or_else(|| Missing::one(missing_reading(quantity)))
+            .ok_or_else(|| need(format!("readings.{quantity}"), missing_reading(quantity)))
     }
 }
 

@@ -23,6 +23,7 @@ use ctx::{missing_reading, mm};
 pub use linear::{Input, Linear, Term};
 pub use table::{Frame, Lead, Row};
 
+use crate::error::{Error, Errors};
 use crate::landmark::Landmark;
 use crate::organ::{Metric, Organ};
 use crate::reading::Quantity;
@@ -75,14 +76,21 @@ impl Value {
     }
 }
 
-/// Why a metric could not be computed: the things to add, in words.
-#[derive(Clone, Debug, PartialEq, Eq)]
-pub struct Missing(pub Vec<String>);
+/// What a metric lacks, as one `Missing` error naming the field to fill.
+pub(crate) fn need(field: impl Into<String>, what: impl Into<String>) -> Errors {
+    Errors::from(Error::missing(field, what))
+}
 
-impl Missing {
-    fn one(what: impl Into<String>) -> Self {
-        Missing(vec![what.into()])
+/// What a metric lacks, in words, once each: the `needs` of a report.
+pub fn needs(errors: &Errors) -> Vec<String> {
+    let mut out: Vec<String> = Vec::new();
+    for e in errors.iter() {
+        let m = e.message();
+        if !out.contains(&m) {
+            out.push(m);
+        }
     }
+    out
 }
 
 /// A place and its height in the scene: where an organ is checked, or
@@ -129,14 +137,14 @@ impl Spot {
 /// # Errors
 /// The eye and limb are checked where IOP and compartment pressure were
 /// taken; without those readings there is no level.
-pub fn organ_place(ctx: &Ctx<'_>, organ: Organ) -> Result<Place, Missing> {
+pub fn organ_place(ctx: &Ctx<'_>, organ: Organ) -> Result<Place, Errors> {
     let scene = ctx.scene();
     let local = |q: Quantity| {
         scene
             .readings
             .get(&q)
             .map(|r| r.place)
-            .ok_or_else(|| Missing::one(missing_reading(q)))
+            .ok_or_else(|| need(format!("readings.{q}"), missing_reading(q)))
     };
     let chosen =
         |default: Landmark| Place::At(scene.organ_levels.get(&organ).copied().unwrap_or(default));
@@ -175,7 +183,7 @@ pub fn metric(
     organ: Organ,
     metric: Metric,
     source: Option<usize>,
-) -> Result<Value, Missing> {
+) -> Result<Value, Errors> {
     let frame = table::row(organ, metric).map_or(Frame::OrganLevel, |r| r.judged);
     metric_in(ctx, organ, metric, source, frame)
 }
@@ -191,10 +199,10 @@ pub fn metric_in(
     metric: Metric,
     source: Option<usize>,
     frame: Frame,
-) -> Result<Value, Missing> {
+) -> Result<Value, Errors> {
     let formula = table::row(organ, metric)
         .and_then(|r| r.formula(frame))
-        .ok_or_else(|| Missing::one(format!("{} has no {metric}", organ.label())))?;
+        .ok_or_else(|| need("", format!("{} has no {metric}", organ.label())))?;
     let here = ctx.spot(organ_place(ctx, organ)?)?;
     let mut steps = Vec::new();
     let mut assumed = Vec::new();
@@ -269,16 +277,10 @@ pub fn metric_in(
 }
 
 /// Both results, or everything either is missing.
-fn both<A, B>(a: Result<A, Missing>, b: Result<B, Missing>) -> Result<(A, B), Missing> {
+fn both<A, B>(a: Result<A, Errors>, b: Result<B, Errors>) -> Result<(A, B), Errors> {
     match (a, b) {
         (Ok(a), Ok(b)) => Ok((a, b)),
-        (a, b) => Err(Missing(
-            [a.err(), b.err()]
-                .into_iter()
-                .flatten()
-                .flat_map(|m| m.0)
-                .collect(),
-        )),
+        (a, b) => Err([a.err(), b.err()].into_iter().flatten().flatten().collect()),
     }
 }
 
@@ -291,39 +293,47 @@ fn waterfall(
     candidates: &[(Quantity, bool)],
     frame: Frame,
     organ: Spot,
-) -> Result<(Outflow, Vec<Term>), Missing> {
+) -> Result<(Outflow, Vec<Term>), Errors> {
     let mut found = Vec::new();
     let mut terms = Vec::new();
-    let mut missing = Vec::new();
+    let mut missing = Errors::default();
     for (q, needed) in candidates {
         match ctx.reading_at(steps, assumed, *q, frame, organ) {
             Ok(Some((p, term))) => {
                 found.push((*q, p));
                 terms.push(term);
             }
-            Ok(None) if *needed => missing.push(missing_reading(*q)),
+            Ok(None) if *needed => {
+                missing.push(Error::missing(format!("readings.{q}"), missing_reading(*q)))
+            }
             Ok(None) => {}
-            Err(m) => missing.extend(m.0),
+            Err(m) => missing.extend(m),
         }
     }
     if found.is_empty() && missing.is_empty() {
-        missing.push(format!(
-            "at least one of {}",
-            candidates
-                .iter()
-                .map(|(q, _)| missing_reading(*q))
-                .collect::<Vec<_>>()
-                .join(" or ")
+        let first = candidates
+            .first()
+            .map_or(String::new(), |(q, _)| format!("readings.{q}"));
+        missing.push(Error::missing(
+            first,
+            format!(
+                "at least one of {}",
+                candidates
+                    .iter()
+                    .map(|(q, _)| missing_reading(*q))
+                    .collect::<Vec<_>>()
+                    .join(" or ")
+            ),
         ));
     }
     if !missing.is_empty() {
-        return Err(Missing(missing));
+        return Err(missing);
     }
     let Some(&(winner, value)) = found
         .iter()
         .max_by(|a, b| to_mmhg(a.1).total_cmp(&to_mmhg(b.1)))
     else {
-        return Err(Missing(missing));
+        return Err(missing);
     };
     if found.len() > 1 {
         ctx.note(

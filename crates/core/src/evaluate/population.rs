@@ -4,7 +4,8 @@
 //! already stands for the eye's height above the arm, so correcting too
 //! would count the column twice.
 
-use super::{mm, Ctx, Frame, Input, Linear, Missing, Spot, Step, Term, Value};
+use super::{mm, need, Ctx, Frame, Input, Linear, Spot, Step, Term, Value};
+use crate::error::{Error, Errors};
 use crate::reading::{Component, MeanBasis, Quantity};
 use crate::scene::Place;
 use crate::units::Pressure;
@@ -20,19 +21,19 @@ pub(super) fn population(
     back: &[(Quantity, bool)],
     eye: Spot,
     (mut steps, mut assumed): (Vec<Step>, Vec<Quantity>),
-) -> Result<Value, Missing> {
+) -> Result<Value, Errors> {
     let scene = ctx.scene();
-    let mut missing = Vec::new();
+    let mut missing = Errors::default();
     if !scene
         .position
         .as_ref()
         .is_some_and(|p| p.posture.is_seated())
     {
-        missing.push(
+        missing.push(Error::missing(
+            "position",
             "a seated position (beach chair or sitting): the population formula was derived in \
-             seated patients"
-                .to_owned(),
-        );
+             seated patients",
+        ));
     }
     let on_arm = |i: &usize| {
         scene
@@ -44,15 +45,18 @@ pub(super) fn population(
         .filter(on_arm)
         .or_else(|| (0..scene.arterial.len()).find(on_arm));
     if arm.is_none() {
-        missing.push("an arterial reading taken on an upper arm".to_owned());
+        missing.push(Error::missing(
+            "arterial",
+            "an arterial reading taken on an upper arm",
+        ));
     }
     let iop = back.first().map_or(Quantity::Iop, |(q, _)| *q);
     let iop = ctx.reading_needed(&mut steps, &mut assumed, iop, Frame::OrganLevel, eye);
     let (Some(i), Ok((iop, back)), true) = (arm, iop.clone(), missing.is_empty()) else {
         if let Err(m) = iop {
-            missing.extend(m.0);
+            missing.extend(m);
         }
-        return Err(Missing(missing));
+        return Err(missing);
     };
     let factor = match component {
         Component::Mean => 2.0 / 3.0,
@@ -61,10 +65,13 @@ pub(super) fn population(
     let a = scene
         .arterial
         .get(i)
-        .ok_or_else(|| Missing::one("an arterial reading taken on an upper arm"))?;
-    let value_at_arm = a
-        .component(component)
-        .ok_or_else(|| Missing::one(format!("the {} pressure of {}", component.label(), a.id)))?;
+        .ok_or_else(|| need("arterial", "an arterial reading taken on an upper arm"))?;
+    let value_at_arm = a.component(component).ok_or_else(|| {
+        need(
+            format!("arterial[{i}].{}", component.label()),
+            format!("the {} pressure of {}", component.label(), a.id),
+        )
+    })?;
     let value = value_at_arm * factor - iop;
     ctx.note(
         &mut steps,

@@ -450,7 +450,7 @@ mod tests {
         let check = |spec: PositionSpec, field: &str| {
             let errors = spec.resolve("position").unwrap_err();
             assert!(
-                errors.iter().any(|e| e.field == field),
+                errors.iter().any(|e| e.field() == field),
                 "expected an error on {field}, got {errors}"
             );
         };

@@ -7,6 +7,7 @@ use std::collections::BTreeMap;
 use serde::Serialize;
 
 use crate::case::Case;
+use crate::error::ErrorKind;
 use crate::evaluate::Input;
 use crate::reading::{Component, Method, Quantity};
 use crate::scene::Scene;
@@ -82,18 +83,22 @@ pub fn case_readings(case: &Case) -> Vec<(String, PressureEntry)> {
 /// The input a channel name refers to in this case.
 ///
 /// # Errors
-/// A name that is neither `<arterial id>.<systolic|diastolic|mean>` nor a
-/// reading's name, with the names the case offers.
-pub fn channel_input(scene: &Scene, name: &str) -> Result<Input, String> {
+/// A reading's name with no reading in the case to give its method and
+/// level (`Missing`), or a name that is neither `<arterial id>.<systolic|
+/// diastolic|mean>` nor a reading's name, with the names the case offers
+/// (`UnknownChannel`).
+pub fn channel_input(scene: &Scene, name: &str) -> Result<Input, ErrorKind> {
     let name = name.trim();
     if let Some(q) = Quantity::ALL.into_iter().find(|q| q.key() == name) {
         return if scene.readings.contains_key(&q) {
             Ok(Input::Reading(q))
         } else {
-            Err(format!(
-                "'{name}' has no reading in the case to give its method and level; add \
-                 readings.{name} (its value there is used where the record has no sample)"
-            ))
+            Err(ErrorKind::Missing {
+                message: format!(
+                    "'{name}' has no reading in the case to give its method and level; add \
+                     readings.{name} (its value there is used where the record has no sample)"
+                ),
+            })
         };
     }
     if let Some((id, part)) = name.rsplit_once('.') {
@@ -113,16 +118,19 @@ pub fn channel_input(scene: &Scene, name: &str) -> Result<Input, String> {
         .iter()
         .map(|a| format!("'{}.mean'", a.id))
         .collect();
-    Err(format!(
-        "'{name}' is not a channel of this case; use an arterial source's id with .systolic, \
-         .diastolic or .mean ({}), or a reading's name ({})",
-        if ids.is_empty() {
-            "the case has no arterial source".to_owned()
-        } else {
-            ids.join(", ")
-        },
-        Quantity::ALL.map(Quantity::key).join(", ")
-    ))
+    Err(ErrorKind::UnknownChannel {
+        name: name.to_owned(),
+        offered: format!(
+            "use an arterial source's id with .systolic, .diastolic or .mean ({}), or a \
+             reading's name ({})",
+            if ids.is_empty() {
+                "the case has no arterial source".to_owned()
+            } else {
+                ids.join(", ")
+            },
+            Quantity::ALL.map(Quantity::key).join(", ")
+        ),
+    })
 }
 
 /// How a reading's samples fill time: cuffs and values read by eye are

@@ -86,7 +86,7 @@ struct Reader {
 
 impl Reader {
     fn error(&mut self, line: usize, column: usize, kind: ErrorKind) {
-        if self.errors.0.len() >= MAX_PROBLEMS {
+        if self.errors.len() >= MAX_PROBLEMS {
             if !self.full {
                 self.full = true;
                 self.errors.push(Error::new(
@@ -112,7 +112,7 @@ impl Reader {
 
     /// A cap met on `line`: `found` of `what` where `max` are accepted.
     fn over(&mut self, line: usize, found: usize, what: &str, max: usize) {
-        let kind = limits::over("", found, what, max).kind;
+        let kind = limits::over("", found, what, max).kind().clone();
         self.error(line, 0, kind);
     }
 }
@@ -264,10 +264,12 @@ pub fn import(text: &str, scene: &Scene) -> Result<TimelineSpec, Errors> {
     let mut columns: Vec<Option<Column>> = Vec::new();
     if !long {
         for (col, cell) in head.iter().enumerate().skip(1) {
-            let parsed = name_and_unit(cell).and_then(|(name, unit)| {
-                let input = channel_input(scene, &name)?;
-                Ok((name, unit, input_range(input)))
-            });
+            let parsed = name_and_unit(cell)
+                .map_err(|message| ErrorKind::Shape { message })
+                .and_then(|(name, unit)| {
+                    let input = channel_input(scene, &name)?;
+                    Ok((name, unit, input_range(input)))
+                });
             match parsed {
                 Ok((name, unit, range)) => {
                     if order.contains(&name) {
@@ -279,8 +281,8 @@ pub fn import(text: &str, scene: &Scene) -> Result<TimelineSpec, Errors> {
                         columns.push(Some((name, unit, range)));
                     }
                 }
-                Err(message) => {
-                    r.shape(header_line, col + 1, message);
+                Err(kind) => {
+                    r.error(header_line, col + 1, kind);
                     columns.push(None);
                 }
             }
@@ -327,8 +329,8 @@ pub fn import(text: &str, scene: &Scene) -> Result<TimelineSpec, Errors> {
             let name = name.trim().to_owned();
             let range = match channel_input(scene, &name) {
                 Ok(input) => input_range(input),
-                Err(message) => {
-                    r.shape(line, 2, message);
+                Err(kind) => {
+                    r.error(line, 2, kind);
                     continue;
                 }
             };

@@ -13,7 +13,7 @@ fn fields_of(text: &str) -> Vec<String> {
     import(text, &scene())
         .unwrap_err()
         .iter()
-        .map(|e| e.field.clone())
+        .map(|e| e.field().to_owned())
         .collect()
 }
 

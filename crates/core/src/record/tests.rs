@@ -197,7 +197,10 @@ fn unknown_channels_and_bad_samples_are_named() {
         ..TimelineSpec::default()
     };
     let errors = Timeline::from_spec(&spec, &s).unwrap_err();
-    assert_eq!(errors.0[0].field, "timeline.channels[0].channel");
+    assert_eq!(
+        errors.first().unwrap().field(),
+        "timeline.channels[0].channel"
+    );
     let spec = TimelineSpec {
         channels: vec![ChannelSpec {
             channel: "a.mean".into(),
@@ -210,7 +213,7 @@ fn unknown_channels_and_bad_samples_are_named() {
     let fields: Vec<String> = Timeline::from_spec(&spec, &s)
         .unwrap_err()
         .iter()
-        .map(|e| e.field.clone())
+        .map(|e| e.field().to_owned())
         .collect();
     assert!(fields.contains(&"timeline.channels[0].t_s[1]".to_owned()));
     assert!(fields.contains(&"timeline.channels[0].values[1]".to_owned()));

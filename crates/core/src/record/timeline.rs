@@ -63,8 +63,8 @@ impl Timeline {
             if clock::time_of_day(clock).is_none() {
                 errors.push(Error::new(
                     "timeline.clock_start",
-                    ErrorKind::Shape {
-                        message: format!("'{clock}' is not a clock time like 08:15:00"),
+                    ErrorKind::ClockTime {
+                        text: clock.clone(),
                     },
                 ));
             }
@@ -97,7 +97,7 @@ impl Timeline {
             last = *at_s;
             match position.resolve(&format!("{field}.position")) {
                 Ok(p) => positions.push((*at_s, p)),
-                Err(e) => errors.0.extend(e.0),
+                Err(e) => errors.extend(e),
             }
         }
 
@@ -105,8 +105,10 @@ impl Timeline {
         if total > MAX_SAMPLES {
             errors.push(Error::new(
                 "timeline.channels",
-                ErrorKind::Shape {
-                    message: format!("{total} samples; a record holds at most {MAX_SAMPLES}"),
+                ErrorKind::OverLimit {
+                    found: total,
+                    what: "samples".to_owned(),
+                    max: MAX_SAMPLES,
                 },
             ));
             return Err(errors);
@@ -201,11 +203,8 @@ fn check_channel(
     let field = format!("timeline.channels[{k}]");
     let input = match channel_input(scene, &c.channel) {
         Ok(input) => input,
-        Err(message) => {
-            errors.push(Error::new(
-                format!("{field}.channel"),
-                ErrorKind::UnknownReference { name: message },
-            ));
+        Err(kind) => {
+            errors.push(Error::new(format!("{field}.channel"), kind));
             return None;
         }
     };
@@ -229,7 +228,7 @@ fn check_channel(
         ));
         return None;
     }
-    let before = errors.0.len();
+    let before = errors.len();
     let mut last = f64::NEG_INFINITY;
     for (j, t) in c.t_s.iter().enumerate() {
         if !(t.is_finite() && *t >= 0.0 && *t <= MAX_SPAN_S && *t > last) {
@@ -255,13 +254,13 @@ fn check_channel(
                     hint: None,
                 },
             ));
-            if errors.0.len() - before > 20 {
+            if errors.len() - before > 20 {
                 break;
             }
         }
         values.push(p);
     }
-    if errors.0.len() > before {
+    if errors.len() > before {
         return None;
     }
     Some(Channel {

@@ -58,18 +58,18 @@ pub(super) fn plan<'t>(scene: &'t Scene, timeline: &Timeline) -> Plan<'t> {
         let place = match organ_place(&base, target.organ) {
             Ok(place) => place,
             Err(m) => {
-                not_analysed.push(not(format!("needs {}", m.0.join("; "))));
+                not_analysed.push(not(format!("needs {}", evaluate::needs(&m).join("; "))));
                 continue;
             }
         };
         if let Err(m) = evaluate::metric(&base, target.organ, target.metric, None) {
-            not_analysed.push(not(format!("needs {}", m.0.join("; "))));
+            not_analysed.push(not(format!("needs {}", evaluate::needs(&m).join("; "))));
             continue;
         }
         let (threshold, at_least) = match crate::check::threshold(&base, place, target) {
             Ok((t, at_least, _)) => (t, at_least),
             Err(m) => {
-                not_analysed.push(not(format!("needs {}", m.0.join("; "))));
+                not_analysed.push(not(format!("needs {}", evaluate::needs(&m).join("; "))));
                 continue;
             }
         };

@@ -180,13 +180,15 @@ impl Checker {
         rule: MeanRule,
     ) -> Option<Arterial> {
         let field = format!("arterial[{i}]");
-        let before = self.errors.0.len();
+        let before = self.errors.len();
         let id = spec.id.trim();
         if id.is_empty() || id.chars().count() > MAX_ID_CHARS {
             self.error(Error::new(
                 format!("{field}.id"),
-                ErrorKind::Shape {
-                    message: format!("a source needs a short name of 1-{MAX_ID_CHARS} characters"),
+                ErrorKind::Length {
+                    what: "a source's short name".to_owned(),
+                    min: 1,
+                    max: MAX_ID_CHARS,
                 },
             ));
         }
@@ -229,7 +231,7 @@ impl Checker {
             rule,
             [spec.systolic, spec.diastolic, spec.mean],
         );
-        if self.errors.0.len() > before {
+        if self.errors.len() > before {
             return None;
         }
         let unit = spec
@@ -335,7 +337,7 @@ impl Checker {
 
     pub(super) fn baseline(&mut self, spec: &BaselineSpec, rule: MeanRule) -> Option<Baseline> {
         let field = "baseline";
-        let before = self.errors.0.len();
+        let before = self.errors.len();
         let mut component = |name: &str, entry: Option<PressureEntry>, c: Component| {
             entry.and_then(|e| self.pressure(&format!("{field}.{name}"), e, c.range_mmhg()))
         };
@@ -346,7 +348,7 @@ impl Checker {
         let position = match spec.position.resolve(&format!("{field}.position")) {
             Ok(p) => Some(p),
             Err(errors) => {
-                self.errors.0.extend(errors.0);
+                self.errors.extend(errors);
                 None
             }
         };
@@ -358,7 +360,7 @@ impl Checker {
             rule,
             [spec.systolic, spec.diastolic, spec.mean],
         );
-        if mean.is_none() && self.errors.0.len() == before {
+        if mean.is_none() && self.errors.len() == before {
             self.error(Error::missing(
                 field,
                 "a baseline needs a mean, or both systolic and diastolic",

@@ -25,7 +25,7 @@ impl Scene {
             .and_then(|spec| match spec.resolve("position") {
                 Ok(p) => Some(p),
                 Err(errors) => {
-                    c.errors.0.extend(errors.0);
+                    c.errors.extend(errors);
                     None
                 }
             });
@@ -367,14 +367,16 @@ fn targets(c: &mut Checker, case: &Case) -> Vec<Target> {
         {
             c.error(Error::new(
                 format!("{field}.source"),
-                ErrorKind::Shape {
-                    message: format!("at most {MAX_SOURCE_CHARS} characters"),
+                ErrorKind::Length {
+                    what: "a target's source".to_owned(),
+                    min: 0,
+                    max: MAX_SOURCE_CHARS,
                 },
             ));
         }
         match spec.resolve(&field) {
             Ok(t) => targets.push(t),
-            Err(errors) => c.errors.0.extend(errors.0),
+            Err(errors) => c.errors.extend(errors),
         }
     }
     targets
@@ -401,7 +403,7 @@ mod tests {
     #[test]
     fn segments_need_a_body_and_implausible_ones_are_flagged() {
         let errors = scene(r#""segments": {"upper_arm": "30 cm"}"#).unwrap_err();
-        assert!(errors.iter().any(|e| e.field == "patient.height"));
+        assert!(errors.iter().any(|e| e.field() == "patient.height"));
         let s = scene(
             r#""patient": {"height": "170 cm"}, "position": {"posture": "supine"},
                "segments": {"upper_arm": "60 cm", "forearm": "25 cm"}"#,

@@ -21,15 +21,12 @@ pub fn HazardsPanel(props: &HazardsPanelProps) -> Html {
     if props.venous_site.is_none() && props.drain.is_none() {
         return html! {};
     }
-    let below = props
-        .venous_site
-        .as_ref()
-        .is_some_and(|s| s.below_atmospheric != Some(false) && s.above_heart_cm > 0.0);
+    let alarm = props.venous_site.as_ref().is_some_and(|s| s.alarm);
     html! {
         <section class="hazards" aria-labelledby="h-hazards">
             <h3 id="h-hazards">{ "Venous pressure and drains" }</h3>
             if let Some(site) = &props.venous_site {
-                <p class={classes!("hazard", below.then_some("hazard-warn"))}>{ site.words.clone() }</p>
+                <p class={classes!("hazard", alarm.then_some("hazard-warn"))}>{ site.words.clone() }</p>
             }
             if let Some(drain) = &props.drain {
                 <p class="hazard">{ drain.words.clone() }</p>

@@ -38,12 +38,12 @@ pub fn Problems(props: &ProblemsProps) -> Html {
             </p>
             <ul>
                 { for props.errors.iter().map(|e| {
-                    let words = path_words(&e.field);
-                    let text = if words.is_empty() { e.kind.to_string() } else { format!("{words}: {}", e.kind) };
-                    if e.field.is_empty() {
+                    let words = path_words(e.field());
+                    let text = if words.is_empty() { e.kind().to_string() } else { format!("{words}: {}", e.kind()) };
+                    if e.field().is_empty() {
                         html! { <li>{ text }</li> }
                     } else {
-                        html! { <li><a href={format!("#{}", dom_id(&e.field))}>{ text }</a></li> }
+                        html! { <li><a href={format!("#{}", dom_id(e.field()))}>{ text }</a></li> }
                     }
                 }) }
             </ul>

@@ -94,7 +94,7 @@ pub fn RecordFile(props: &RecordFileProps) -> Html {
                     <p>{ format!("{} to fix, each with its line and column:", problems_words(p.errors.iter().count())) }</p>
                     <ul>
                         { for p.errors.iter().map(|e| html! {
-                            <li>{ if e.field.is_empty() { e.kind.to_string() } else { format!("{}: {}", capital(&e.field), e.kind) } }</li>
+                            <li>{ if e.field().is_empty() { e.kind().to_string() } else { format!("{}: {}", capital(e.field()), e.kind()) } }</li>
                         }) }
                     </ul>
                 </section>

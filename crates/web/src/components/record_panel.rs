@@ -116,7 +116,7 @@ pub fn RecordPanel(props: &RecordPanelProps) -> Html {
                         </h3>
                         <ul>
                             { for r.fit.iter().map(|e| html! {
-                                <li>{ format!("{}: {}", capital(&path_words(&e.field)), e.kind) }</li>
+                                <li>{ format!("{}: {}", capital(&path_words(e.field())), e.kind()) }</li>
                             }) }
                         </ul>
                     </section>

@@ -44,7 +44,7 @@ pub fn RecordRules(props: &RecordRulesProps) -> Html {
                         let rule = *rule;
                         let id = dom_id(rule.path());
                         let mut messages: Vec<Message> = Rule::read(text).err().map(Message::Error).into_iter().collect();
-                        messages.extend(props.fit.for_field(rule.path()).map(|e| Message::Error(e.kind.to_string())));
+                        messages.extend(props.fit.for_field(rule.path()).map(|e| Message::Error(e.kind().to_string())));
                         let d = props.dispatch.clone();
                         let oninput = Callback::from(move |e: InputEvent| {
                             let text = e.target_unchecked_into::<HtmlInputElement>().value();

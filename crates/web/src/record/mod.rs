@@ -646,7 +646,7 @@ mod tests {
             .unwrap()
             .errors
             .iter()
-            .map(|e| e.field.clone())
+            .map(|e| e.field().to_owned())
             .collect();
         assert_eq!(
             fields,

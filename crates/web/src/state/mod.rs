@@ -165,7 +165,7 @@ impl State {
         let mut out: Vec<Message> = self
             .errors
             .for_field(path)
-            .map(|e: &Error| Message::Error(e.kind.to_string()))
+            .map(|e: &Error| Message::Error(e.kind().to_string()))
             .collect();
         if let Some(checked) = &self.checked {
             out.extend(
