@@ -29,7 +29,7 @@ use plumbline_core::case::Case;
 use plumbline_web::api;
 use plumbline_web::form::Form;
 use plumbline_web::saved;
-use plumbline_web::session::Event;
+use plumbline_web::session::{Event, Part, Why};
 use plumbline_web::state::{State, Theme};
 use plumbline_web::storage::Stored;
 use same_report::differ;
@@ -128,10 +128,13 @@ fn on_screen(state: &State) -> Answer {
 fn page_link(text: &str) -> Result<State, String> {
     let packed = miniz_oxide::deflate::compress_to_vec(text.as_bytes(), 9);
     let fragment = format!("#p1.{}", URL_SAFE_NO_PAD.encode(packed));
-    let state = State::start(Stored::default(), Some(&fragment));
-    match &state.session.event {
-        Some(Event::LinkOpened) => Ok(state),
-        Some(Event::LinkRefused(words)) => Err(words.clone()),
+    let state = State::start(Stored::default(), Some(&fragment), &mut |_| {});
+    if state.session.event == Some(Event::LinkOpened) {
+        return Ok(state);
+    }
+    // Refused: the link is kept for download, with why.
+    match state.session.rescued.last().map(|r| (r.part, &r.why)) {
+        Some((Part::Link, Why::Unreadable(words))) => Err(words.clone()),
         other => panic!("{other:?}"),
     }
 }
@@ -142,8 +145,8 @@ fn page_saved(case: &Case) -> State {
         state: Some(saved::encode(&Form::from_case(case), Theme::Device)),
         ..Stored::default()
     };
-    let state = State::start(stored, None);
-    assert_eq!(state.session.unreadable, None);
+    let state = State::start(stored, None, &mut |_| {});
+    assert_eq!(state.session.rescued, []);
     state
 }
 
