@@ -19,7 +19,10 @@ step "lints (host)"
 cargo clippy --workspace --all-targets -- -D warnings
 
 step "unit, reference, property and command-line tests"
-cargo test --workspace
+cargo test --workspace --exclude plumbline-fuzz
+
+step "fuzzing corpus replay: every corpus input and seed decoded and checked, no panic"
+cargo test -p plumbline-fuzz
 
 step "the core builds for wasm32"
 cargo build -p plumbline-core --target wasm32-unknown-unknown --quiet

@@ -14,7 +14,8 @@ export const shots = join(root, 'tests', 'e2e', 'screenshots');
 
 /**
  * Serves dist/ (or another folder) on 127.0.0.1 with an OS-chosen port;
- * resolves to { url, stop }.
+ * resolves to { url, stop, log }: `log` lists every request answered, as
+ * { method, path, status }, from the server's own log.
  */
 export function serve(folder = dist) {
   if (!existsSync(join(dist, 'index.html'))) {
@@ -26,6 +27,17 @@ export function serve(folder = dist) {
       stdio: ['ignore', 'pipe', 'pipe'],
     });
     let seen = '';
+    const log = [];
+    let pending = '';
+    server.stderr.on('data', (chunk) => {
+      pending += chunk.toString();
+      const lines = pending.split('\n');
+      pending = lines.pop();
+      for (const line of lines) {
+        const m = line.match(/"(\w+) (\S+) HTTP\/[\d.]+" (\d{3})/);
+        if (m) log.push({ method: m[1], path: m[2], status: Number(m[3]) });
+      }
+    });
     const onData = (chunk) => {
       seen += chunk.toString();
       const m = seen.match(/port (\d+)/);
@@ -34,13 +46,13 @@ export function serve(folder = dist) {
         resolve({
           url: `http://127.0.0.1:${m[1]}/`,
           stop: () => server.kill(),
+          log,
         });
       }
     };
     // A crashed run must not leave the server behind.
     process.on('exit', () => server.kill());
     server.stdout.on('data', onData);
-    server.stderr.on('data', () => {});
     server.on('error', reject);
     server.on('exit', (code) => reject(new Error(`static server exited with ${code}: ${seen}`)));
   });
@@ -50,7 +62,7 @@ export function serve(folder = dist) {
  * Serves a copy of dist/ at `subPath` of a fresh site (`tools/plumbline/`
  * tests publishing in a sub-folder); `change(dir)` may alter the copy first,
  * and the copy in `dir` may be changed while it is served (a new build).
- * Resolves to { url (the app's address), dir, stop }.
+ * Resolves to { url (the app's address), dir, stop, log (as serve's) }.
  */
 export async function serveCopy({ subPath = '', change } = {}) {
   const site = mkdtempSync(join(tmpdir(), 'plumbline-site-'));
@@ -61,6 +73,7 @@ export async function serveCopy({ subPath = '', change } = {}) {
   return {
     url: server.url + subPath,
     dir,
+    log: server.log,
     stop: () => {
       server.stop();
       rmSync(site, { recursive: true, force: true });

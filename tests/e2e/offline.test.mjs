@@ -8,6 +8,11 @@
 //      and icons, offline, share links, nothing asked outside the folder
 //   4. another page loads the module and calls check() and
 //      shareFragment(); the screen does not mount there
+//   5. a first visit transfers each file of the build once (the server's
+//      own log), and the worker keeps every one of them
+//   6. a damaged file in the worker's cache is fetched again at the next
+//      start; with no network the page says so plainly, and heals once
+//      the network is back
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { readFileSync, writeFileSync, utimesSync } from 'node:fs';
@@ -200,3 +205,102 @@ function shape(value) {
   if (value && typeof value === 'object') return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, shape(v)]));
   return typeof value === 'number' ? 'number' : value;
 }
+
+/** The build's files and their SHA-256, as build-web.sh wrote them into sw.js. */
+function buildFiles(dir) {
+  const worker = readFileSync(join(dir, 'sw.js'), 'utf8');
+  return JSON.parse(worker.match(/^const FILES = (\{.*\});$/m)[1]);
+}
+
+/** What the worker's cache holds for each file, as SHA-256 in hex. */
+function cachedDigests(page) {
+  return page.evaluate(async () => {
+    const [name] = await caches.keys();
+    const cache = await caches.open(name);
+    const out = {};
+    for (const request of await cache.keys()) {
+      const bytes = await (await cache.match(request)).arrayBuffer();
+      const hash = new Uint8Array(await crypto.subtle.digest('SHA-256', bytes));
+      out[new URL(request.url).pathname.split('/').pop()] = Array.from(hash, (b) => b.toString(16).padStart(2, '0')).join('');
+    }
+    return out;
+  });
+}
+
+/** Overwrites the worker's copy of `file` with other bytes. */
+function damage(page, file) {
+  return page.evaluate(async (file) => {
+    const [name] = await caches.keys();
+    const cache = await caches.open(name);
+    const url = new URL(file, location.href).href;
+    await cache.put(url, new Response('not the build', { headers: { 'Content-Type': 'application/wasm' } }));
+  }, file);
+}
+
+test('a first visit transfers each file once, and the worker keeps every file', async () => {
+  const site = await serveCopy({ subPath: 'ward/' });
+  try {
+    const { page, context, problems } = await open(chrome.browser, site.url);
+    await controlled(page);
+    // Active, so installed: every file cached, with its own bytes.
+    const files = buildFiles(site.dir);
+    assert.deepEqual(await cachedDigests(page), files);
+    // The server's log: each file's bytes crossed the network once (the
+    // page's own address counting as index.html).
+    const transfers = {};
+    for (const { method, path, status } of site.log) {
+      if (method !== 'GET' || status !== 200) continue;
+      const name = path.slice('/ward/'.length) || 'index.html';
+      transfers[name] = (transfers[name] ?? 0) + 1;
+    }
+    for (const [name, n] of Object.entries(transfers)) assert.equal(n, 1, `${name} transferred ${n} times`);
+    for (const name of Object.keys(files)) assert.equal(transfers[name], 1, `${name} transferred once`);
+    // A second start transfers nothing but the worker's own script check.
+    const before = site.log.length;
+    await page.reload();
+    await ready(page);
+    const again = site.log.slice(before).filter((r) => r.status === 200 && !r.path.endsWith('/sw.js'));
+    assert.deepEqual(again, [], 'nothing fetched again');
+    assert.deepEqual(problems, [], 'no script errors');
+    await context.close();
+  } finally {
+    site.stop();
+  }
+});
+
+test('a damaged cached file is fetched again; with no network the page says so, then heals', async () => {
+  const site = await serveCopy();
+  try {
+    const { page, context, problems } = await open(chrome.browser, site.url);
+    await controlled(page);
+    const files = buildFiles(site.dir);
+    await until(async () => Object.keys(await cachedDigests(page)).length === Object.keys(files).length, 'every file cached');
+    await damage(page, 'plumbline_bg.wasm');
+    assert.notEqual((await cachedDigests(page))['plumbline_bg.wasm'], files['plumbline_bg.wasm']);
+    await page.reload();
+    await ready(page);
+    await typeMean(page, '72');
+    assert.equal((await cachedDigests(page))['plumbline_bg.wasm'], files['plumbline_bg.wasm'], 'healed');
+
+    // No network and nothing in the browser's cache: said plainly.
+    await damage(page, 'plumbline_bg.wasm');
+    const cdp = await context.newCDPSession(page);
+    await cdp.send('Network.clearBrowserCache');
+    await context.setOffline(true);
+    await page.reload();
+    const words = page.getByRole('alert').filter({ hasText: 'Part of Plumbline kept on this device is damaged (plumbline_bg.wasm)' });
+    await words.waitFor();
+    assert.match(await words.textContent(), /Connect to the network once/);
+    await page.screenshot({ path: screenshotPath('damaged-offline') });
+    // The network back: the next start repairs it, and the check is there.
+    await context.setOffline(false);
+    await page.reload();
+    await ready(page);
+    assert.equal(await radial(page).getByLabel('Mean', { exact: true }).inputValue(), '72');
+    assert.equal((await cachedDigests(page))['plumbline_bg.wasm'], files['plumbline_bg.wasm'], 'healed again');
+    assert.deepEqual(problems.filter((p) => !/ERR_INTERNET_DISCONNECTED|Failed to fetch|damaged|WebAssembly|Failed to load/.test(p)), [], 'no other script errors');
+    await context.close();
+  } finally {
+    site.stop();
+  }
+});

@@ -4,11 +4,13 @@
 //   1. the share dialog's link opens the same check in a fresh browser
 //   2. opening a link over a saved check keeps that check, with a way back
 //   3. a link pasted into the open app's address bar opens too
-//   4. malformed, truncated and hostile fragments: a notice, nothing runs
+//   4. malformed, truncated and hostile fragments: a notice, nothing runs,
+//      the link kept for download as it came
 //   5. screenshots of the dialog at tablet and phone sizes
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { deflateRawSync } from 'node:zlib';
+import { readFileSync } from 'node:fs';
 import { suite, open, until, caseJsonOf, screenshotPath, showSource, unfold } from './harness.mjs';
 
 const env = suite();
@@ -125,7 +127,14 @@ for (const [what, fragment] of fragments) {
     // The app still works.
     await (await radial(page)).getByLabel('Mean', { exact: true }).fill('80');
     await until(async () => JSON.parse(await caseJsonOf(page)).arterial[0].mean === '80 mmHg', 'an edit');
-    await notice.getByRole('button', { name: 'Close' }).click();
+    // The link is kept for download, exactly as it came.
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      notice.getByRole('button', { name: 'Download the copy' }).click(),
+    ]);
+    assert.equal(readFileSync(await download.path(), 'utf8'), new URL(env.server.url + fragment).hash);
+    await notice.getByRole('button', { name: 'Discard it' }).click();
+    await until(async () => (await notice.count()) === 0, 'the notice gone');
     assert.deepEqual(dialogs, [], 'no dialog');
     assert.deepEqual(foreign, [], 'no request leaves 127.0.0.1');
     assert.deepEqual(problems, [], 'no script errors');

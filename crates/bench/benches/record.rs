@@ -1,10 +1,43 @@
-//! The eight-hour, 1 Hz, four-source record (28,800 rows) under criterion:
-//! CSV import, checking the record, and exposure analysis, reported as
-//! samples per second. Numbers go in DEVELOPERS.md.
+//! The record workloads under criterion. The eight-hour, 1 Hz, four-source
+//! record (28,800 rows): CSV import, checking the record, and exposure
+//! analysis, as samples per second. The same record run to 72 hours
+//! (259,200 rows, about 5.5 MB): CSV import in bytes per second, beside a
+//! reference reading of the same file with the `csv` crate and the
+//! standard number reader into the same columns, so the hand-written
+//! reader's speed is measured against the library's. Numbers go in
+//! DEVELOPERS.md.
 
 use criterion::{criterion_group, criterion_main, Criterion, Throughput};
-use plumbline_bench::{analyze, import, record_csv, scene, timeline, ROWS};
+use plumbline_bench::{analyze, import, record_csv, scene, timeline, ROWS, ROWS_72H};
 use std::hint::black_box;
+
+/// The 72-hour file read with the `csv` crate into the same columns the
+/// importer fills (times and values per channel, empty cells skipped),
+/// with none of its checks; the number of samples.
+fn csv_crate_reference(text: &str) -> usize {
+    let mut columns: Vec<(Vec<f64>, Vec<f64>)> = vec![(Vec::new(), Vec::new()); 4];
+    let mut reader = csv::ReaderBuilder::new()
+        .flexible(true)
+        .from_reader(text.as_bytes());
+    let mut record = csv::StringRecord::new();
+    while let Ok(true) = reader.read_record(&mut record) {
+        let Some(Ok(t)) = record.get(0).map(|c| c.trim().parse::<f64>()) else {
+            continue;
+        };
+        for (i, (times, values)) in columns.iter_mut().enumerate() {
+            if let Some(Ok(v)) = record
+                .get(i + 1)
+                .map(str::trim)
+                .filter(|c| !c.is_empty())
+                .map(str::parse::<f64>)
+            {
+                times.push(t);
+                values.push(v);
+            }
+        }
+    }
+    columns.iter().map(|c| c.0.len()).sum()
+}
 
 fn bench(c: &mut Criterion) {
     let (Ok(scene), text) = (scene(), record_csv(ROWS)) else {
@@ -24,6 +57,23 @@ fn bench(c: &mut Criterion) {
     });
     group.bench_function("exposure analysis", |b| {
         b.iter(|| analyze(&scene, black_box(&tl)))
+    });
+    group.finish();
+
+    let long = record_csv(ROWS_72H);
+    // Both read every sample, or the comparison means nothing.
+    if import(&scene, &long).ok() != Some(csv_crate_reference(&long)) {
+        eprintln!("record: the reference reading of the 72-hour file differs");
+        return;
+    }
+    let mut group = c.benchmark_group("record 72 h at 1 Hz, 4 sources");
+    group.throughput(Throughput::Bytes(long.len() as u64));
+    group.sample_size(10);
+    group.bench_function("csv import", |b| {
+        b.iter(|| import(&scene, black_box(&long)))
+    });
+    group.bench_function("csv crate reference (no checks)", |b| {
+        b.iter(|| csv_crate_reference(black_box(&long)))
     });
     group.finish();
 }

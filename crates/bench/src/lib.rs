@@ -1,6 +1,7 @@
 //! The record workload of the benchmarks: an invented eight-hour record at
-//! 1 Hz with four sources (28,800 rows), its case, and the three steps the
-//! app runs on it (CSV import, checking the record, exposure analysis).
+//! 1 Hz with four sources (28,800 rows), the same record run to the longest
+//! accepted, 72 hours (259,200 rows), its case, and the three steps the app
+//! runs on it (CSV import, checking the record, exposure analysis).
 //!
 //! One generator serves the native criterion bench, the native timing
 //! binary and the wasm exports, so native and browser numbers measure the
@@ -13,6 +14,8 @@ use plumbline_core::scene::Scene;
 
 /// Rows in the eight-hour record.
 pub const ROWS: usize = 28_800;
+/// Rows in the 72-hour record, the longest a record may run.
+pub const ROWS_72H: usize = 259_200;
 
 /// An invented sitting-position case with a line, a cuff, CVP and ICP.
 pub const CASE: &str = r#"{

@@ -15,6 +15,8 @@
 
 #[path = "../../../tests/documents.rs"]
 mod documents;
+#[path = "../../../tests/same_report.rs"]
+mod same_report;
 
 use std::io::Write;
 use std::path::PathBuf;
@@ -27,9 +29,10 @@ use plumbline_core::case::Case;
 use plumbline_web::api;
 use plumbline_web::form::Form;
 use plumbline_web::saved;
-use plumbline_web::session::Event;
+use plumbline_web::session::{Event, Part, Why};
 use plumbline_web::state::{State, Theme};
 use plumbline_web::storage::Stored;
+use same_report::differ;
 use serde_json::Value;
 
 /// A face's answer: the report as JSON, or the problems as the command
@@ -38,34 +41,6 @@ use serde_json::Value;
 enum Answer {
     Report(Value),
     Refused(Vec<String>),
-}
-
-/// Where two reports first differ, numbers compared as numbers to within
-/// the last bits serde_json's fast float reading may miss when it reads
-/// the command line's printed report back; `None` when they agree.
-fn differ(a: &Value, b: &Value, at: &str) -> Option<String> {
-    match (a, b) {
-        (Value::Number(x), Value::Number(y)) => {
-            let (x, y) = (x.as_f64().unwrap(), y.as_f64().unwrap());
-            ((x - y).abs() > 4.0 * f64::EPSILON * x.abs().max(1.0))
-                .then(|| format!("{at}: {x} against {y}"))
-        }
-        (Value::Array(x), Value::Array(y)) if x.len() == y.len() => x
-            .iter()
-            .zip(y)
-            .enumerate()
-            .find_map(|(i, (x, y))| differ(x, y, &format!("{at}[{i}]"))),
-        (Value::Object(x), Value::Object(y)) if x.len() == y.len() => {
-            x.iter().find_map(|(k, v)| {
-                y.get(k).map_or_else(
-                    || Some(format!("{at}.{k} missing")),
-                    |w| differ(v, w, &format!("{at}.{k}")),
-                )
-            })
-        }
-        _ if a == b => None,
-        _ => Some(format!("{at}: {a} against {b}")),
-    }
 }
 
 /// Whether two faces gave the same answer; the first difference if not.
@@ -153,10 +128,13 @@ fn on_screen(state: &State) -> Answer {
 fn page_link(text: &str) -> Result<State, String> {
     let packed = miniz_oxide::deflate::compress_to_vec(text.as_bytes(), 9);
     let fragment = format!("#p1.{}", URL_SAFE_NO_PAD.encode(packed));
-    let state = State::start(Stored::default(), Some(&fragment));
-    match &state.session.event {
-        Some(Event::LinkOpened) => Ok(state),
-        Some(Event::LinkRefused(words)) => Err(words.clone()),
+    let state = State::start(Stored::default(), Some(&fragment), &mut |_| {});
+    if state.session.event == Some(Event::LinkOpened) {
+        return Ok(state);
+    }
+    // Refused: the link is kept for download, with why.
+    match state.session.rescued.last().map(|r| (r.part, &r.why)) {
+        Some((Part::Link, Why::Unreadable(words))) => Err(words.clone()),
         other => panic!("{other:?}"),
     }
 }
@@ -167,8 +145,8 @@ fn page_saved(case: &Case) -> State {
         state: Some(saved::encode(&Form::from_case(case), Theme::Device)),
         ..Stored::default()
     };
-    let state = State::start(stored, None);
-    assert_eq!(state.session.unreadable, None);
+    let state = State::start(stored, None, &mut |_| {});
+    assert_eq!(state.session.rescued, []);
     state
 }
 

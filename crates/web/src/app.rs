@@ -1,15 +1,20 @@
 //! The app: starts from what the device saved (or a shared link), keeps
-//! the device's copy in step, applies the theme to the page, listens for a
-//! link pasted into the address bar and for a new version, and shows the
-//! check screen.
+//! the device's copy in step (and in step with other windows of the app),
+//! applies the theme to the page, listens for a link pasted into the
+//! address bar and for a new version, and shows the check screen.
+//!
+//! These are the state's effects: the reducer only computes the next
+//! state, and everything that touches the browser runs here (or in the
+//! component that offers it: downloads, the clipboard).
 
 use gloo::events::EventListener;
+use wasm_bindgen::JsCast;
 use yew::prelude::*;
 
 use crate::browser;
 use crate::pages::check_page::CheckPage;
-use crate::persist::{self, Persisted};
-use crate::session::{is_link, SessionAction};
+use crate::persist::{self, Elsewhere, Persisted};
+use crate::session::{is_link, Opening, SessionAction};
 use crate::state::{Action, State};
 
 /// Props of [`App`].
@@ -19,7 +24,22 @@ pub struct AppProps {}
 /// The app.
 #[component]
 pub fn App(_props: &AppProps) -> Html {
-    let state = use_reducer(|| State::start(persist::stored(), Some(&browser::fragment())));
+    let persisted = use_mut_ref(Persisted::default);
+    // The note of what is opening stays on the device until the first
+    // render is done: found at the next start, it means the page froze or
+    // was closed while opening it, and that document is set aside.
+    let opening = use_mut_ref(|| false);
+    let state = {
+        let (persisted, opening) = (persisted.clone(), opening.clone());
+        use_reducer(move || {
+            let stored = persist::stored();
+            persisted.borrow_mut().know(&stored);
+            State::start(stored, Some(&browser::fragment()), &mut |what| {
+                persist::note_opening(what);
+                *opening.borrow_mut() = what.is_some();
+            })
+        })
+    };
     let theme = state.theme;
     use_effect_with(theme, move |theme| {
         if let Some(root) = gloo::utils::document().document_element() {
@@ -29,13 +49,18 @@ pub fn App(_props: &AppProps) -> Html {
     });
     // After every change: the device's copy follows the screen; and when
     // the page is hidden or closed, at once, even before the next render.
-    let persisted = use_mut_ref(Persisted::default);
     {
-        let (state, persisted) = (state.clone(), persisted.clone());
+        let (state, persisted, opening) = (state.clone(), persisted.clone(), opening.clone());
         use_effect(move || {
-            let ok = persisted.borrow_mut().sync(&state);
-            if ok == state.session.not_saved {
-                state.dispatch(Action::Session(SessionAction::Saved(ok)));
+            if std::mem::take(&mut *opening.borrow_mut()) {
+                persist::note_opening(None);
+            }
+            let synced = persisted.borrow_mut().sync(&state);
+            if synced.ok == state.session.not_saved {
+                state.dispatch(Action::Session(SessionAction::Saved(synced.ok)));
+            }
+            if synced.conflict && !state.session.other_window {
+                state.dispatch(Action::Session(SessionAction::OtherWindowSaved));
             }
         });
     }
@@ -44,13 +69,29 @@ pub fn App(_props: &AppProps) -> Html {
         // or not (Yew renders a large page in slices).
         let state = state.clone();
         use_effect_with((), move |_| {
-            let flush = move |_: &web_sys::Event| {
-                persisted.borrow_mut().sync(&state);
+            let flush = {
+                let (state, persisted) = (state.clone(), persisted.clone());
+                move |_: &web_sys::Event| {
+                    persisted.borrow_mut().sync(&state);
+                }
             };
             let document = gloo::utils::document();
             let hidden = EventListener::new(&document, "visibilitychange", flush.clone());
             let closing = EventListener::new(&gloo::utils::window(), "pagehide", flush);
-            move || drop((hidden, closing))
+            // Another window of the app saved: said at once when it is the
+            // open check, and before this window would write over it.
+            let other = EventListener::new(&gloo::utils::window(), "storage", move |event| {
+                let Some(event) = event.dyn_ref::<web_sys::StorageEvent>() else {
+                    return;
+                };
+                let changed = persisted
+                    .borrow_mut()
+                    .changed_elsewhere(event.key().as_deref(), event.new_value().as_deref());
+                if changed == Some(Elsewhere::OpenCheck) && !state.session.other_window {
+                    state.dispatch(Action::Session(SessionAction::OtherWindowSaved));
+                }
+            });
+            move || drop((hidden, closing, other))
         });
     }
     {
@@ -70,6 +111,8 @@ pub fn App(_props: &AppProps) -> Html {
                 let fragment = browser::fragment();
                 if is_link(&fragment) && !browser::is_anchor(&fragment) {
                     browser::clear_fragment();
+                    persist::note_opening(Some(&Opening::Link(fragment.clone())));
+                    *opening.borrow_mut() = true;
                     on_link.dispatch(Action::Session(SessionAction::OpenLink(fragment)));
                 }
             });

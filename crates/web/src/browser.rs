@@ -25,6 +25,17 @@ pub fn read(key: &str) -> Option<String> {
     local_storage()?.get_item(key).ok()?
 }
 
+/// Every key local storage holds (none when storage is off).
+pub fn keys() -> Vec<String> {
+    let Some(storage) = local_storage() else {
+        return Vec::new();
+    };
+    let n = storage.length().unwrap_or(0);
+    (0..n)
+        .filter_map(|i| storage.key(i).ok().flatten())
+        .collect()
+}
+
 /// Saves `value` under `key`; `false` when storage is off or full.
 pub fn write(key: &str, value: &str) -> bool {
     local_storage().is_some_and(|s| s.set_item(key, value).is_ok())

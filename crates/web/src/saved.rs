@@ -22,6 +22,7 @@ use serde_json::Value;
 
 use crate::form::Form;
 use crate::record::Record;
+use crate::session::Opening;
 use crate::storage::Kind;
 use crate::theme::Theme;
 
@@ -31,6 +32,31 @@ pub const CHECK: Kind = Kind {
     version: 1,
     what: "a check",
 };
+
+/// The first line of the note of what the app is opening; a link's
+/// fragment follows on the second. Plain text: the note is ours alone
+/// and lives only from a start to its first render.
+pub const OPENING_HEAD: &str = "plumbline-opening 1";
+
+/// The note kept while `opening` is opened.
+pub fn encode_opening(opening: &Opening) -> String {
+    match opening {
+        Opening::Saved => OPENING_HEAD.to_owned(),
+        Opening::Link(fragment) => format!("{OPENING_HEAD}\n{fragment}"),
+    }
+}
+
+/// What a note says was opening; a damaged note counts as the saved check
+/// (the cautious reading: it is set aside, kept for download).
+pub fn decode_opening(text: &str) -> Opening {
+    match text
+        .strip_prefix(OPENING_HEAD)
+        .and_then(|rest| rest.strip_prefix('\n'))
+    {
+        Some(fragment) => Opening::Link(fragment.to_owned()),
+        None => Opening::Saved,
+    }
+}
 
 /// A check read back from the device.
 #[derive(Clone, Debug, PartialEq)]
@@ -168,7 +194,7 @@ pub fn decode_record(text: &str) -> Result<SavedRecord, String> {
             timeline: case.timeline,
             start: case.position,
         })
-        .map_err(|e| format!("the record over time cannot be read ({})", first_words(&e)))
+        .map_err(|e| first_words(&e))
 }
 
 /// The first problem of a list, for a notice.
@@ -199,7 +225,6 @@ mod tests {
     #![allow(clippy::unwrap_used, clippy::indexing_slicing)]
     use super::*;
     use crate::form::{Edit, Slot, SourcePart};
-    use plumbline_core::case::ChannelSpec;
     use plumbline_core::demo::CASE_JSON;
     use plumbline_core::units::PressureUnit;
 
@@ -226,17 +251,7 @@ mod tests {
 
     /// A record of 1000 samples riding in the demo's case.
     fn demo_with_record() -> Case {
-        let mut case = Case::from_json(CASE_JSON).unwrap();
-        case.timeline = Some(TimelineSpec {
-            channels: vec![ChannelSpec {
-                channel: "radial line.mean".into(),
-                unit: PressureUnit::MmHg,
-                t_s: (0..1000).map(f64::from).collect(),
-                values: vec![74.0; 1000],
-            }],
-            ..TimelineSpec::default()
-        });
-        case
+        crate::record::demo_with_record(1000, 74.0)
     }
 
     #[test]
@@ -310,6 +325,19 @@ mod tests {
             "its boxes cannot be read",
         );
         assert!(decode_record("{").is_err());
+    }
+
+    #[test]
+    fn the_opening_note_names_the_link_or_the_saved_check() {
+        for opening in [Opening::Saved, Opening::Link("#p1.abc\"<".into())] {
+            assert_eq!(decode_opening(&encode_opening(&opening)), opening);
+        }
+        assert_eq!(decode_opening("{"), Opening::Saved);
+        assert_eq!(
+            decode_opening(r#"{"format":"plumbline-opening","version":1,"link":3}"#),
+            Opening::Saved
+        );
+        assert_eq!(decode_opening("plumbline-opening 9\n#p1.x"), Opening::Saved);
     }
 
     #[test]

@@ -18,12 +18,43 @@ use serde_json::{Map, Value};
 pub const STATE_KEY: &str = "plumbline.state";
 /// Where the check set aside by a new check, the demo or a link is kept.
 pub const KEPT_KEY: &str = "plumbline.kept";
-/// Where a saved state that could not be read is kept for download.
-pub const UNREADABLE_KEY: &str = "plumbline.unreadable";
+/// Where texts that could not be used are kept for download: each under a
+/// key of its own, `plumbline.unreadable.<id>.<part>.<why>` (an earlier
+/// version kept one, under this key alone).
+pub const RESCUED_PREFIX: &str = "plumbline.unreadable";
+/// What the app is opening (the saved check, or a link), from just before
+/// its check until the first render is done: found at the next start, it
+/// says the page froze or was closed while opening it.
+pub const OPENING_KEY: &str = "plumbline.opening";
 /// Where the open check's record over time is kept.
 pub const RECORD_KEY: &str = "plumbline.record";
 /// Where the set-aside check's record over time is kept.
 pub const KEPT_RECORD_KEY: &str = "plumbline.kept.record";
+
+/// The live keys: the open check and the set-aside one, each with its
+/// record over time. Another window writing one of them is a conflict.
+pub const LIVE_KEYS: [&str; 4] = [STATE_KEY, RECORD_KEY, KEPT_KEY, KEPT_RECORD_KEY];
+
+/// The key a rescued text `id` of `part`, set aside for `why`, is kept
+/// under (names without dots).
+pub fn rescued_key(id: &str, part: &str, why: &str) -> String {
+    format!("{RESCUED_PREFIX}.{id}.{part}.{why}")
+}
+
+/// The part and reason named by a rescued text's key (`None` for a key
+/// that is not one); the earlier version's single key is an unreadable
+/// saved state.
+pub fn rescued_names(key: &str) -> Option<(&str, &str)> {
+    if key == RESCUED_PREFIX {
+        return Some(("state", "unreadable"));
+    }
+    let rest = key.strip_prefix(RESCUED_PREFIX)?.strip_prefix('.')?;
+    let mut names = rest.rsplitn(3, '.');
+    let why = names.next()?;
+    let part = names.next()?;
+    names.next().filter(|id| !id.is_empty())?;
+    Some((part, why))
+}
 
 /// The longest text read back, bytes: far above any check, and a guard
 /// against a store filled by something else.
@@ -109,8 +140,13 @@ pub struct Stored {
     pub kept: Option<String>,
     /// Under [`KEPT_RECORD_KEY`].
     pub kept_record: Option<String>,
-    /// Under [`UNREADABLE_KEY`].
-    pub unreadable: Option<String>,
+    /// Every rescued text, `(key, text)`, oldest first (keys sort by the
+    /// time of the visit that made them).
+    pub rescued: Vec<(String, String)>,
+    /// Under [`OPENING_KEY`]: what the last start was still opening.
+    pub opening: Option<String>,
+    /// This visit's name, unique on the device.
+    pub visit: String,
 }
 
 #[cfg(test)]
@@ -139,6 +175,26 @@ mod tests {
         );
         let fields = KIND.open(&text).unwrap();
         assert_eq!(fields.keys().collect::<Vec<_>>(), ["a", "b"]);
+    }
+
+    #[test]
+    fn rescued_keys_name_their_part_and_reason() {
+        let key = rescued_key("0001764712345678042-3", "kept-record", "unreadable");
+        assert_eq!(
+            key,
+            "plumbline.unreadable.0001764712345678042-3.kept-record.unreadable"
+        );
+        assert_eq!(rescued_names(&key), Some(("kept-record", "unreadable")));
+        assert_eq!(rescued_names(RESCUED_PREFIX), Some(("state", "unreadable")));
+        for not_one in [
+            "plumbline.unreadablex",
+            "plumbline.unreadable.",
+            "plumbline.unreadable.a.b",
+            "plumbline.unreadable..b.c",
+            "plumbline.state",
+        ] {
+            assert_eq!(rescued_names(not_one), None, "{not_one}");
+        }
     }
 
     #[test]

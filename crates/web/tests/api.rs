@@ -20,6 +20,10 @@ wasm_bindgen_test_configure!(run_in_browser);
 
 #[path = "../../../tests/documents.rs"]
 mod documents;
+#[path = "../../../tests/same_report.rs"]
+mod same_report;
+
+use same_report::differ;
 
 /// A plain JavaScript object, as another page would build it.
 fn object(json: &str) -> JsValue {
@@ -30,35 +34,6 @@ fn object(json: &str) -> JsValue {
 fn seen(value: &JsValue) -> Value {
     let text: String = js_sys::JSON::stringify(value).unwrap().into();
     serde_json::from_str(&text).unwrap()
-}
-
-/// Whether two numbers are the same f64 but for the last bit, which
-/// serde_json's fast float reading may miss when it reads JavaScript's text.
-fn close(x: Option<f64>, y: Option<f64>) -> bool {
-    matches!((x, y), (Some(x), Some(y)) if (x - y).abs() <= 4.0 * f64::EPSILON * x.abs().max(1.0))
-}
-
-/// Where two JSON values first differ, numbers compared as numbers
-/// (JavaScript writes `0` where serde writes `0.0`); `None` when equal.
-fn differ(a: &Value, b: &Value, at: &str) -> Option<String> {
-    match (a, b) {
-        (Value::Number(x), Value::Number(y)) if close(x.as_f64(), y.as_f64()) => None,
-        (Value::Array(x), Value::Array(y)) if x.len() == y.len() => x
-            .iter()
-            .zip(y)
-            .enumerate()
-            .find_map(|(i, (x, y))| differ(x, y, &format!("{at}[{i}]"))),
-        (Value::Object(x), Value::Object(y)) if x.len() == y.len() => {
-            x.iter().find_map(|(k, v)| {
-                y.get(k).map_or_else(
-                    || Some(format!("{at}.{k} missing")),
-                    |w| differ(v, w, &format!("{at}.{k}")),
-                )
-            })
-        }
-        _ if a == b => None,
-        _ => Some(format!("{at}: {a} against {b}")),
-    }
 }
 
 #[wasm_bindgen_test]

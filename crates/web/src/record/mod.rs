@@ -701,6 +701,24 @@ impl Record {
     }
 }
 
+/// The demo case carrying a record of `samples` line means at 1 Hz, all
+/// `mean` (in the case's own mmHg text), for the tests of every layer that
+/// keeps or restores a record.
+#[cfg(test)]
+pub(crate) fn demo_with_record(samples: u32, mean: f64) -> Case {
+    let mut case = Case::from_json(plumbline_core::demo::CASE_JSON).unwrap_or_default();
+    case.timeline = Some(TimelineSpec {
+        channels: vec![plumbline_core::case::ChannelSpec {
+            channel: "radial line.mean".into(),
+            unit: plumbline_core::units::PressureUnit::MmHg,
+            t_s: (0..samples).map(f64::from).collect(),
+            values: vec![mean; samples as usize],
+        }],
+        ..TimelineSpec::default()
+    });
+    case
+}
+
 #[cfg(test)]
 mod tests {
     #![allow(clippy::unwrap_used, clippy::indexing_slicing)]

@@ -9,6 +9,7 @@
 //! downloads run outside it (`app`, `persist`, the components). Changes to
 //! the whole check (the start, a new check, a link) live in `whole`.
 
+mod start;
 mod ward;
 mod whole;
 
@@ -237,6 +238,36 @@ impl Reducible for State {
             Action::AddReading { now_s } => next.add_reading(now_s),
         }
         Rc::new(next)
+    }
+}
+
+/// What the state's tests share: acting on a state as the screen does,
+/// and a check with a record over time.
+#[cfg(test)]
+pub(crate) mod testing {
+    #![allow(clippy::unwrap_used)]
+    use super::*;
+    use crate::form::{Slot, SourcePart};
+
+    /// `action` applied by the reducer.
+    pub fn act(state: State, action: SessionAction) -> State {
+        Rc::try_unwrap(Rc::new(state).reduce(Action::Session(action))).unwrap()
+    }
+
+    /// The first source's mean typed as `text`.
+    pub fn edit(state: State, text: &str) -> State {
+        let slot = Slot::Source(0, SourcePart::Mean);
+        Rc::try_unwrap(Rc::new(state).reduce(Action::Edit(Edit::Text(slot, text.into())))).unwrap()
+    }
+
+    /// The demo with a record of 600 samples, as the screen holds it.
+    pub fn with_record() -> State {
+        let case = crate::record::demo_with_record(600, 70.0);
+        let mut state = State::demo(Theme::Device);
+        state.form = Form::from_case(&case);
+        state.recheck();
+        assert_eq!(state.record.samples(), 600);
+        state
     }
 }
 

@@ -70,6 +70,23 @@ fn values_out_of_range_and_backward_times() {
 }
 
 #[test]
+fn samples_a_nanosecond_apart_are_one_time() {
+    let text = "elapsed_s,radial line.mean [mmHg],icp [mmHg]\n1,70,\n1.0000000001,71,9\n";
+    let errors = import(text, &scene()).unwrap_err().to_string();
+    assert_eq!(
+        errors,
+        "line 3, column 1: a second radial line.mean sample at the same time"
+    );
+    let text =
+        "time,channel,value\n00:00:01,icp,9 mmHg\n00:00:03,icp,8 mmHg\n00:00:01,icp,7 mmHg\n";
+    let errors = import(text, &scene()).unwrap_err().to_string();
+    assert_eq!(
+        errors,
+        "line 4, column 1: a second icp sample at the same time"
+    );
+}
+
+#[test]
 fn export_reads_back() {
     let text = "elapsed_s,radial line.mean [mmHg],left arm cuff.mean [mmHg]\n0,74,\n1,73,79\n";
     let spec = import(text, &scene()).unwrap();
@@ -79,6 +96,17 @@ fn export_reads_back() {
 
 proptest::proptest! {
     #![proptest_config(proptest::prelude::ProptestConfig::with_cases(3000))]
+
+    /// The quick number reader gives the standard reader's f64, bit
+    /// for bit, or refuses what it refuses.
+    #[test]
+    fn numbers_read_as_the_standard_reader_reads_them(
+        text in "-?[0-9]{0,18}(\\.[0-9]{0,18})?|[-+0-9.eE ,x]{0,12}|(-?[0-9]{1,8}\\.[0-9]{1,8})",
+    ) {
+        let quick = parse_f64(&text).map(f64::to_bits);
+        let standard = text.parse::<f64>().ok().map(f64::to_bits);
+        proptest::prop_assert_eq!(quick, standard, "{:?}", text);
+    }
 
     /// Any text is read or refused with messages, never a panic.
     #[test]

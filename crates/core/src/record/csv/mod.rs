@@ -23,7 +23,12 @@
 //! until the file is clean. The file's bytes, rows, columns and line length
 //! are capped (`limits`) before a line is split.
 
-use std::collections::BTreeMap;
+mod rows;
+#[cfg(test)]
+mod tests;
+mod text;
+
+use std::borrow::Cow;
 
 use super::clock::{self, Stamp};
 use super::{channel_input, input_range, MAX_SAMPLES, MAX_SPAN_S};
@@ -31,32 +36,13 @@ use crate::case::{ChannelSpec, TimelineSpec};
 use crate::error::{Error, ErrorKind, Errors};
 use crate::limits::{self, MAX_CSV_COLUMNS, MAX_CSV_LINE_BYTES, MAX_CSV_ROWS};
 use crate::scene::Scene;
-use crate::units::{to_mmhg, PressureEntry, PressureUnit};
+use crate::units::{mmhg, to_mmhg, PressureEntry, PressureUnit};
+
+use rows::*;
+use text::*;
 
 /// The most problems listed before the import gives up.
 pub const MAX_PROBLEMS: usize = limits::MAX_CSV_PROBLEMS;
-
-/// Splits one line into fields, honouring double quotes (`""` inside
-/// quotes is a quote).
-fn split(line: &str, sep: char) -> Vec<String> {
-    let mut fields = Vec::new();
-    let mut field = String::new();
-    let mut quoted = false;
-    let mut chars = line.chars().peekable();
-    while let Some(c) = chars.next() {
-        match c {
-            '"' if quoted && chars.peek() == Some(&'"') => {
-                field.push('"');
-                chars.next();
-            }
-            '"' => quoted = !quoted,
-            c if c == sep && !quoted => fields.push(std::mem::take(&mut field)),
-            c => field.push(c),
-        }
-    }
-    fields.push(field);
-    fields
-}
 
 /// A header cell `name [unit]`.
 fn name_and_unit(cell: &str) -> Result<(String, PressureUnit), String> {
@@ -131,10 +117,8 @@ impl Clock {
     fn seconds(&mut self, text: &str) -> Result<f64, String> {
         let raw = match self.kind {
             TimeKind::Elapsed => {
-                let v: f64 = text
-                    .trim()
-                    .parse()
-                    .map_err(|_| format!("'{}' is not a number of seconds", text.trim()))?;
+                let v = parse_f64(trim(text))
+                    .ok_or_else(|| format!("'{}' is not a number of seconds", text.trim()))?;
                 if !(v.is_finite() && v >= 0.0) {
                     return Err(format!("'{}' is not a time from 0 on", text.trim()));
                 }
@@ -181,16 +165,6 @@ impl Clock {
     }
 }
 
-fn number(text: &str, decimal_comma: bool) -> Option<f64> {
-    let text = text.trim();
-    let text = if decimal_comma {
-        text.replace(',', ".")
-    } else {
-        text.to_owned()
-    };
-    text.parse::<f64>().ok().filter(|v| v.is_finite())
-}
-
 /// Reads a record file against a case's sources.
 ///
 /// # Errors
@@ -203,11 +177,10 @@ pub fn import(text: &str, scene: &Scene) -> Result<TimelineSpec, Errors> {
         full: false,
     };
     limits::check_bytes("", text.len())?;
-    let mut lines = text
-        .lines()
-        .enumerate()
-        .map(|(i, l)| (i + 1, l.trim_end_matches('\r')))
-        .filter(|(_, l)| !l.trim().is_empty() && !l.trim_start().starts_with('#'));
+    let mut lines = ContentLines {
+        rest: text,
+        number: 0,
+    };
     let Some((header_line, header)) = lines.next() else {
         r.shape(1, 0, "the file has no header line".to_owned());
         return Err(r.errors);
@@ -225,7 +198,6 @@ pub fn import(text: &str, scene: &Scene) -> Result<TimelineSpec, Errors> {
         .into_iter()
         .max_by_key(|c| header.matches(*c).count())
         .unwrap_or(',');
-    let decimal_comma = sep != ',';
     let head = split(header, sep);
     if head.len() > MAX_CSV_COLUMNS {
         r.over(header_line, head.len(), "columns", MAX_CSV_COLUMNS);
@@ -245,203 +217,121 @@ pub fn import(text: &str, scene: &Scene) -> Result<TimelineSpec, Errors> {
             return Err(r.errors);
         }
     };
-    let mut clock = Clock {
-        kind,
-        origin: None,
-        wraps: 0.0,
-        last_time_of_day: None,
-        dated: None,
-        start: None,
-    };
     let long = names.get(1..) == Some(&["channel".to_owned(), "value".to_owned()][..]);
-
-    // Channel name → (unit, samples, the line each sample came from).
-    type Samples = (PressureUnit, Vec<(f64, f64, usize)>);
-    let mut channels: BTreeMap<String, Samples> = BTreeMap::new();
-    let mut order: Vec<String> = Vec::new();
-    /// A wide file's column: channel name, unit and accepted range in mmHg.
-    type Column = (String, PressureUnit, (f64, f64));
-    let mut columns: Vec<Option<Column>> = Vec::new();
-    if !long {
-        for (col, cell) in head.iter().enumerate().skip(1) {
-            let parsed = name_and_unit(cell)
-                .map_err(|message| ErrorKind::Shape { message })
-                .and_then(|(name, unit)| {
-                    let input = channel_input(scene, &name)?;
-                    Ok((name, unit, input_range(input)))
-                });
-            match parsed {
-                Ok((name, unit, range)) => {
-                    if order.contains(&name) {
-                        r.error(header_line, col + 1, ErrorKind::Duplicate { name });
-                        columns.push(None);
-                    } else {
-                        order.push(name.clone());
-                        channels.insert(name.clone(), (unit, Vec::new()));
-                        columns.push(Some((name, unit, range)));
-                    }
-                }
-                Err(kind) => {
-                    r.error(header_line, col + 1, kind);
-                    columns.push(None);
-                }
-            }
+    let layout = if long {
+        Layout::Long {
+            known: Vec::new(),
+            channels: Vec::new(),
         }
-    }
-
-    let mut samples = 0usize;
-    let mut last_row_time = f64::NEG_INFINITY;
+    } else {
+        Layout::Wide {
+            columns: wide_columns(&mut r, scene, &head, header_line),
+            near: Vec::new(),
+            last_row_time: f64::NEG_INFINITY,
+        }
+    };
+    let mut rows = Rows {
+        r,
+        decimal_comma: sep != ',',
+        clock: Clock {
+            kind,
+            origin: None,
+            wraps: 0.0,
+            last_time_of_day: None,
+            dated: None,
+            start: None,
+        },
+        width: head.len(),
+        scene,
+        layout,
+        samples: 0,
+    };
+    let sep_byte = u8::try_from(sep).unwrap_or(b',');
     for (row, (line, text)) in lines.enumerate() {
-        if r.full {
+        if rows.r.full {
             break;
         }
         if row == MAX_CSV_ROWS {
-            r.over(line, row + 1, "rows (or more)", MAX_CSV_ROWS);
+            rows.r.over(line, row + 1, "rows (or more)", MAX_CSV_ROWS);
             break;
         }
         if text.len() > MAX_CSV_LINE_BYTES {
-            r.over(line, text.len(), "bytes in one line", MAX_CSV_LINE_BYTES);
+            rows.r
+                .over(line, text.len(), "bytes in one line", MAX_CSV_LINE_BYTES);
             continue;
         }
-        let fields = split(text, sep);
-        if fields.len() != head.len() {
-            r.shape(
+        let go_on = match count_cells(text, sep_byte) {
+            Some(count) => rows.row(
                 line,
-                0,
-                format!("{} fields, the header has {}", fields.len(), head.len()),
-            );
-            continue;
-        }
-        let Some(time_text) = fields.first() else {
-            continue;
-        };
-        let t = match clock.seconds(time_text) {
-            Ok(t) => t,
-            Err(message) => {
-                r.shape(line, 1, message);
-                continue;
+                count,
+                Cells {
+                    line: text,
+                    start: 0,
+                    sep: sep_byte,
+                },
+            ),
+            None => {
+                let cells = split(text, sep);
+                rows.row(line, cells.len(), cells.iter().map(String::as_str))
             }
         };
-        if long {
-            let (Some(name), Some(value)) = (fields.get(1), fields.get(2)) else {
-                continue;
-            };
-            let name = name.trim().to_owned();
-            let range = match channel_input(scene, &name) {
-                Ok(input) => input_range(input),
-                Err(kind) => {
-                    r.error(line, 2, kind);
-                    continue;
-                }
-            };
-            let text = if decimal_comma {
-                value.replace(',', ".")
-            } else {
-                value.clone()
-            };
-            let entry = match text.parse::<PressureEntry>() {
-                Ok(e) => e,
-                Err(e) => {
-                    r.error(
-                        line,
-                        3,
-                        ErrorKind::Quantity {
-                            message: e.to_string(),
-                        },
-                    );
-                    continue;
-                }
-            };
-            if !in_range(&mut r, line, 3, entry, range) {
-                continue;
-            }
-            let slot = channels.entry(name.clone()).or_insert_with(|| {
-                order.push(name.clone());
-                (entry.unit, Vec::new())
-            });
-            if slot.0 != entry.unit {
-                r.shape(
-                    line,
-                    3,
-                    format!(
-                        "{name} was given in {} before; keep one unit per channel",
-                        slot.0
-                    ),
-                );
-                continue;
-            }
-            slot.1.push((t, entry.amount, line));
-            samples += 1;
-        } else {
-            if t <= last_row_time {
-                r.shape(
-                    line,
-                    1,
-                    "the time does not move forward from the row above".to_owned(),
-                );
-                continue;
-            }
-            last_row_time = t;
-            for (col, (cell, column)) in fields.iter().skip(1).zip(&columns).enumerate() {
-                let Some((name, unit, range)) = column else {
-                    continue;
-                };
-                if cell.trim().is_empty() {
-                    continue;
-                }
-                let Some(v) = number(cell, decimal_comma) else {
-                    r.error(
-                        line,
-                        col + 2,
-                        ErrorKind::Quantity {
-                            message: format!("'{}' is not a number", cell.trim()),
-                        },
-                    );
-                    continue;
-                };
-                if !in_range(&mut r, line, col + 2, PressureEntry::new(v, *unit), *range) {
-                    continue;
-                }
-                if let Some(slot) = channels.get_mut(name) {
-                    slot.1.push((t, v, line));
-                    samples += 1;
-                }
-            }
-        }
-        if samples > MAX_SAMPLES {
-            r.shape(line, 0, format!("more than {MAX_SAMPLES} samples"));
+        if !go_on {
             break;
         }
     }
-
-    let mut specs = Vec::new();
-    for name in &order {
-        let Some((unit, mut rows)) = channels.remove(name) else {
-            continue;
-        };
-        rows.sort_by(|a, b| a.0.total_cmp(&b.0));
-        for pair in rows.windows(2) {
-            if let [a, b] = pair {
-                if (b.0 - a.0).abs() < 1e-9 {
-                    r.shape(b.2, 1, format!("a second {name} sample at the same time"));
-                }
-            }
-        }
-        specs.push(ChannelSpec {
-            channel: name.clone(),
-            unit,
-            t_s: rows.iter().map(|x| x.0).collect(),
-            values: rows.iter().map(|x| x.1).collect(),
-        });
-    }
-    if specs.iter().all(|c| c.t_s.is_empty()) && r.errors.is_empty() {
+    let channels = rows.channels();
+    let mut r = rows.r;
+    if channels.iter().all(|c| c.t_s.is_empty()) && r.errors.is_empty() {
         r.shape(header_line, 0, "the file has no samples".to_owned());
     }
     r.errors.into_result(TimelineSpec {
-        clock_start: clock.start.map(|s| clock::clock_words(s % 86_400.0)),
-        channels: specs,
+        clock_start: rows.clock.start.map(|s| clock::clock_words(s % 86_400.0)),
+        channels,
         ..TimelineSpec::default()
     })
+}
+
+/// A wide file's columns after the time, from its header: `None` for a
+/// column that names no channel of the case or repeats one (each said).
+fn wide_columns(
+    r: &mut Reader,
+    scene: &Scene,
+    head: &[String],
+    header_line: usize,
+) -> Vec<Option<Column>> {
+    let mut columns: Vec<Option<Column>> = Vec::new();
+    for (col, cell) in head.iter().enumerate().skip(1) {
+        let parsed = name_and_unit(cell)
+            .map_err(|message| ErrorKind::Shape { message })
+            .and_then(|(name, unit)| {
+                let input = channel_input(scene, &name)?;
+                Ok((name, unit, input_range(input)))
+            });
+        match parsed {
+            Ok((name, unit, range)) => {
+                if columns.iter().flatten().any(|c| c.name == name) {
+                    r.error(header_line, col + 1, ErrorKind::Duplicate { name });
+                    columns.push(None);
+                } else {
+                    let (lo, hi) = (unit.value(mmhg(range.0)), unit.value(mmhg(range.1)));
+                    let margin = 1e-9 * lo.abs().max(hi.abs()).max(1.0);
+                    columns.push(Some(Column {
+                        name,
+                        unit,
+                        range,
+                        inside: (lo + margin, hi - margin),
+                        t_s: Vec::new(),
+                        values: Vec::new(),
+                    }));
+                }
+            }
+            Err(kind) => {
+                r.error(header_line, col + 1, kind);
+                columns.push(None);
+            }
+        }
+    }
+    columns
 }
 
 fn in_range(
@@ -506,7 +396,3 @@ fn quote(name: &str) -> String {
         name.to_owned()
     }
 }
-
-#[cfg(test)]
-#[path = "csv_tests.rs"]
-mod tests;
