@@ -22,6 +22,11 @@
 //! problem is reported with its line and column, and nothing is imported
 //! until the file is clean. The file's bytes, rows, columns and line length
 //! are capped (`limits`) before a line is split.
+//!
+//! A 72-hour file at 1 Hz is megabytes, so the reader works at the speed of
+//! a library: lines and cells are cut at ASCII bytes and borrowed, plain
+//! decimals take an exact fast path, and a wide file's samples go straight
+//! into their columns, which its forward-running rows keep in time order.
 
 mod rows;
 #[cfg(test)]
