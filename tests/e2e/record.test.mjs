@@ -48,7 +48,7 @@ async function openFile(page, name, text) {
  */
 function expectedFor(t) {
   if (t.words.endsWith('no observed time')) return ['no observed time'];
-  const m = t.words.match(/for ([\d.]+) min of ([\d.]+) min observed \((\d+)%\), area (-?\d+) mmHg·min, time-weighted average (-?[\d.]+) mmHg, longest episode ([\d.]+) min(?:; (?:lowest|highest) (-?\d+) mmHg at (\d+:\d\d:\d\d))?/);
+  const m = t.words.match(/for ([\d.]+) min of ([\d.]+) min observed \((\d+)%\), area (-?\d+) mmHg·min, average depth (?:below|above) target (-?[\d.]+) mmHg \(time-weighted\), longest episode ([\d.]+) min(?:; (?:lowest|highest) (-?\d+) mmHg at (\d+:\d\d:\d\d))?/);
   assert.ok(m, `the core's words: ${t.words}`);
   const side = t.at_least ? 'below' : 'above';
   // Labelled so that no exposure figure reads as a pressure.
@@ -68,7 +68,9 @@ async function matchesCli(page, exposure) {
   assert.ok(exposure.targets.length > 0, 'the CLI follows some target');
   for (const t of exposure.targets) {
     const group = panel(page).getByRole('group', { name: t.target, exact: true });
-    const want = expectedFor(t);
+    // The core's status word, as the CLI's table prints it in brackets.
+    const word = { met: 'MET', below: 'BELOW', above: 'ABOVE', not_observed: 'NOT OBSERVED' }[t.status] ?? 'NOT EVALUATED';
+    const want = [word, ...expectedFor(t)];
     await until(async () => {
       const text = await group.textContent();
       const missing = want.filter((w) => !text.includes(w));

@@ -100,8 +100,8 @@ pub struct Exposure {
 
 /// The published definitions behind the exposure numbers.
 pub const DEFINITIONS: &str = "time and area below a threshold as in studies of intraoperative \
-    hypotension (e.g. Salmasi et al., Anesthesiology 2017); time-weighted average = area divided \
-    by the observed time";
+    hypotension (e.g. Salmasi et al., Anesthesiology 2017); average depth (time-weighted) = area \
+    divided by the observed time";
 
 /// An episode outside a target: its duration (s) and area (mmHg·s).
 type Episode = (f64, f64);
@@ -250,8 +250,8 @@ fn summarize(f: &Followed<'_>, t: Tally, rules: &Rules) -> TargetExposure {
     } else {
         let mut w = format!(
             "{label} {side} {thr:.0} mmHg for {outside_min:.1} min of {observed_min:.1} min \
-             observed ({percent:.0}%), area {area:.0} mmHg·min, time-weighted average \
-             {twa:.1} mmHg, longest episode {:.1} min",
+             observed ({percent:.0}%), area {area:.0} mmHg·min, average depth {side} target \
+             {twa:.1} mmHg (time-weighted), longest episode {:.1} min",
             longest_s / 60.0
         );
         if let Some((v, at)) = worst {
