@@ -296,7 +296,7 @@ test('a damaged cached file is fetched again; with no network the page says so, 
     await context.setOffline(false);
     await page.reload();
     await ready(page);
-    assert.equal(await radial(page).getByLabel('Mean', { exact: true }).inputValue(), '72');
+    assert.equal(await (await radial(page)).getByLabel('Mean', { exact: true }).inputValue(), '72');
     assert.equal((await cachedDigests(page))['plumbline_bg.wasm'], files['plumbline_bg.wasm'], 'healed again');
     assert.deepEqual(problems.filter((p) => !/ERR_INTERNET_DISCONNECTED|Failed to fetch|damaged|WebAssembly|Failed to load/.test(p)), [], 'no other script errors');
     await context.close();

@@ -23,7 +23,7 @@ import assert from 'node:assert/strict';
 import { readFileSync, existsSync } from 'node:fs';
 import { deflateRawSync } from 'node:zlib';
 import { join } from 'node:path';
-import { suite, open, until, caseJsonOf, root } from './harness.mjs';
+import { suite, open, until, caseJsonOf, root, showSource } from './harness.mjs';
 
 const env = suite();
 
@@ -33,7 +33,7 @@ const env = suite();
 const capped = existsSync(join(root, 'crates', 'core', 'src', 'limits.rs'))
   || 'the core does not cap arterial sources yet (no crates/core/src/limits.rs)';
 
-const radial = (page) => page.getByRole('group', { name: /Arterial source 1/ });
+const radial = (page) => showSource(page);
 const ready = (page) => page.getByRole('heading', { name: "At the organs' own height" }).waitFor();
 
 /** A fragment carrying `json` as a share link does (deflate, base64url). */
@@ -71,12 +71,12 @@ async function downloaded(page, notice) {
 /** A page that answers: the screen, and a box that takes a keystroke. */
 async function usable(page, ms) {
   await page.getByRole('heading', { name: 'Plumbline', level: 1 }).waitFor({ timeout: ms });
-  await radial(page).getByLabel('Mean', { exact: true }).fill('88', { timeout: ms });
+  await (await radial(page)).getByLabel('Mean', { exact: true }).fill('88', { timeout: ms });
 }
 
 test('a saved check whose opening did not finish last time is set aside unopened', async () => {
   const { page, context, problems } = await open(env.chrome.browser, env.server.url);
-  await radial(page).getByLabel('Mean', { exact: true }).fill('83');
+  await (await radial(page)).getByLabel('Mean', { exact: true }).fill('83');
   const saved = await until(async () => {
     const text = await page.evaluate(() => localStorage.getItem('plumbline.state'));
     return text?.includes('"83"') && text;
@@ -104,7 +104,7 @@ test('a saved check whose opening did not finish last time is set aside unopened
 
 test('a link whose opening did not finish is not opened again; the saved check opens', async () => {
   const { page, context, problems } = await open(env.chrome.browser, env.server.url);
-  await radial(page).getByLabel('Mean', { exact: true }).fill('84');
+  await (await radial(page)).getByLabel('Mean', { exact: true }).fill('84');
   await until(async () => (await page.evaluate(() => localStorage.getItem('plumbline.state')))?.includes('"84"'), 'the check saved');
   const fragment = `#${fragmentOf(JSON.stringify(manySources(3)))}`;
   // As the page leaves it when it froze while opening the link; the
@@ -116,7 +116,7 @@ test('a link whose opening did not finish is not opened again; the saved check o
   const notice = page.getByRole('alert').filter({ hasText: 'The link did not finish opening last time' });
   await notice.waitFor();
   assert.equal(await downloaded(page, notice), fragment);
-  assert.equal(await radial(page).getByLabel('Mean', { exact: true }).inputValue(), '84', 'the saved check, not the link');
+  assert.equal(await (await radial(page)).getByLabel('Mean', { exact: true }).inputValue(), '84', 'the saved check, not the link');
   await until(async () => page.url() === env.server.url, 'the link gone from the address bar');
   assert.deepEqual(problems, [], 'no script errors');
   await context.close();
@@ -137,7 +137,7 @@ test('the worst known link gives a usable page within 2 s, its text kept', { ski
 test('the worst known saved check gives a usable page within 2 s, its text kept', { skip: capped !== true && capped }, async () => {
   const { page, context, problems } = await open(env.chrome.browser, env.server.url);
   // The page's own saved check, its boxes and case holding 120 sources.
-  await radial(page).getByLabel('Mean', { exact: true }).fill('85');
+  await (await radial(page)).getByLabel('Mean', { exact: true }).fill('85');
   const worst = worstSaved(await until(async () => {
     const text = await page.evaluate(() => localStorage.getItem('plumbline.state'));
     return text?.includes('"85"') && text;

@@ -58,8 +58,19 @@ pub fn check_json(text: &str) -> Result<Report, Errors> {
 /// # Errors
 /// Every problem with the case, each naming its field.
 pub fn check_case(case: &Case) -> Result<Report, Errors> {
+    Ok(check_keeping_scene(case)?.1)
+}
+
+/// Checks and evaluates a case, and hands back its scene too, so further
+/// work on the same case (a record's analysis) need not gate it again.
+///
+/// # Errors
+/// Every problem with the case, each naming its field.
+pub fn check_keeping_scene(case: &Case) -> Result<(Scene, Report), Errors> {
     crate::limits::check_case(case)?;
-    Ok(check(&Scene::from_case(case)?))
+    let scene = Scene::from_case(case)?;
+    let report = check(&scene);
+    Ok((scene, report))
 }
 
 /// Evaluates a checked scene.

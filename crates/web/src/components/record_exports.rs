@@ -38,8 +38,8 @@ pub fn RecordExports(props: &RecordExportsProps) -> Html {
             })
         };
     let onseries = download("plumbline-organ-series.csv", |r, c| {
-        let case = c.map(|c| &c.case).ok_or("there is no complete check")?;
-        r.series_csv(case).map_err(|e| e.to_string())
+        let checked = c.ok_or("there is no complete check")?;
+        r.series_csv(checked.basis()).map_err(|e| e.to_string())
     });
     let oncase = download("plumbline-case-with-record.json", |r, c| {
         let case = c.map(|c| &c.case).ok_or("there is no complete check")?;

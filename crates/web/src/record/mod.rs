@@ -18,6 +18,7 @@ pub mod strip;
 pub mod trend;
 pub mod when;
 
+use std::borrow::Cow;
 use std::rc::Rc;
 
 use plumbline_core::case::{Case, RulesSpec, TimelineSpec};
@@ -126,6 +127,17 @@ impl Rule {
             .map(Some)
             .map_err(|_| format!("'{text}' is not a number of seconds"))
     }
+}
+
+/// The case on screen as the core checked it. The record reuses its scene
+/// and gates a case of its own only when the record starts in another
+/// position, so an analysis never checks the case the state just checked.
+#[derive(Clone, Copy)]
+pub struct Basis<'a> {
+    /// The checked case.
+    pub case: &'a Case,
+    /// Its scene, as the state's check gated it.
+    pub scene: &'a Scene,
 }
 
 /// A channel of the record as analysed.
@@ -395,9 +407,14 @@ impl Record {
         }
     }
 
-    /// The case with the record, checked by the core.
-    fn checked(&self, case: &Case) -> Result<(Scene, Timeline), Errors> {
-        let scene = Scene::from_case(&self.starting(case))?;
+    /// The scene the record starts in, with the record checked against it.
+    fn checked<'a>(&self, basis: Basis<'a>) -> Result<(Cow<'a, Scene>, Timeline), Errors> {
+        let scene = match &self.start {
+            Some(start) if basis.case.position.as_ref() != Some(start) => {
+                Cow::Owned(Scene::from_case(&self.starting(basis.case))?)
+            }
+            _ => Cow::Borrowed(basis.scene),
+        };
         let timeline = Timeline::from_spec(&self.timeline(), &scene)?;
         Ok((scene, timeline))
     }
@@ -406,22 +423,22 @@ impl Record {
     ///
     /// # Errors
     /// A record that does not fit the case.
-    pub fn series_csv(&self, case: &Case) -> Result<String, Errors> {
-        let (scene, timeline) = self.checked(case)?;
+    pub fn series_csv(&self, basis: Basis<'_>) -> Result<String, Errors> {
+        let (scene, timeline) = self.checked(basis)?;
         Ok(record::series_csv(&scene, &timeline))
     }
 
-    fn analyse(&mut self, case: Option<&Case>) {
+    fn analyse(&mut self, basis: Option<Basis<'_>>) {
         self.pending = false;
         if self.is_empty() {
             self.analysis = None;
             self.fit = Errors::default();
             return;
         }
-        let Some(case) = case else {
+        let Some(basis) = basis else {
             return;
         };
-        match self.checked(case) {
+        match self.checked(basis) {
             Ok((scene, timeline)) => {
                 self.analysis = Some(Rc::new(self.analysed(&scene, &timeline)));
                 self.fit = Errors::default();
@@ -493,11 +510,11 @@ impl Record {
         }
     }
 
-    /// Applies one change. `case` is the last good check's case; `stale`
-    /// says the boxes on screen differ from it.
-    pub fn apply(&mut self, action: RecordAction, case: Option<&Case>, stale: bool) {
+    /// Applies one change. `basis` is the last good check; `stale` says the
+    /// boxes on screen differ from it.
+    pub fn apply(&mut self, action: RecordAction, basis: Option<Basis<'_>>, stale: bool) {
         match action {
-            RecordAction::Open { name, text } => self.open(name, &text, case),
+            RecordAction::Open { name, text } => self.open(name, &text, basis),
             RecordAction::Unreadable { name, why } => {
                 self.file = Some(FileProblems {
                     name,
@@ -512,18 +529,18 @@ impl Record {
                 self.when.text = text;
                 self.entry = None;
             }
-            RecordAction::AddSample { now_s } => self.add_sample(now_s, case, stale),
-            RecordAction::MarkPosition { now_s } => self.mark_position(now_s, case, stale),
+            RecordAction::AddSample { now_s } => self.add_sample(now_s, basis, stale),
+            RecordAction::MarkPosition { now_s } => self.mark_position(now_s, basis, stale),
             RecordAction::RemoveChange(i) => {
                 if i < self.spec.positions.len() {
                     Rc::make_mut(&mut self.spec).positions.remove(i);
-                    self.analyse(case);
+                    self.analyse(basis);
                 }
             }
             RecordAction::StartHere => {
-                if let Some(position) = case.and_then(|c| c.position.clone()) {
+                if let Some(position) = basis.and_then(|b| b.case.position.clone()) {
                     self.start = Some(position);
-                    self.analyse(case);
+                    self.analyse(basis);
                 }
             }
             RecordAction::Rule(rule, text) => {
@@ -535,7 +552,7 @@ impl Record {
                 }
                 self.case_changed();
             }
-            RecordAction::Analyse => self.analyse(case),
+            RecordAction::Analyse => self.analyse(basis),
             RecordAction::Close => {
                 *self = Record {
                     when: self.when.clone(),
@@ -564,7 +581,7 @@ impl Record {
                         entry::set_reading(Rc::make_mut(&mut self.spec), &id, t_s, Some(&bp));
                         self.ward.problem = None;
                         self.note = Some(format!("Reading at {} changed.", elapsed_words(t_s)));
-                        self.analyse(case);
+                        self.analyse(basis);
                     }
                     Err(why) => self.ward.problem = Some(why),
                 }
@@ -572,16 +589,16 @@ impl Record {
             RecordAction::RemoveReading { id, t_s } => {
                 entry::set_reading(Rc::make_mut(&mut self.spec), &id, t_s, None);
                 self.note = Some(format!("Reading at {} removed.", elapsed_words(t_s)));
-                self.analyse(case);
+                self.analyse(basis);
             }
         }
     }
 
-    fn open(&mut self, name: String, text: &str, case: Option<&Case>) {
-        let Some(case) = case else {
+    fn open(&mut self, name: String, text: &str, basis: Option<Basis<'_>>) {
+        let Some(basis) = basis else {
             return;
         };
-        let imported = Scene::from_case(case).and_then(|scene| csv::import(text, &scene));
+        let imported = csv::import(text, basis.scene);
         match imported {
             Err(errors) => {
                 self.note = Some(format!(
@@ -592,7 +609,7 @@ impl Record {
             }
             Ok(imported) => {
                 if self.is_empty() {
-                    self.start = case.position.clone();
+                    self.start = basis.case.position.clone();
                 }
                 let spec = Rc::make_mut(&mut self.spec);
                 spec.channels = imported.channels;
@@ -603,13 +620,13 @@ impl Record {
                 self.opened = Some(name);
                 self.file = None;
                 self.entry = None;
-                self.analyse(Some(case));
+                self.analyse(Some(basis));
             }
         }
     }
 
-    fn add_sample(&mut self, now_s: f64, case: Option<&Case>, stale: bool) {
-        let Some(case) = case.filter(|_| !stale) else {
+    fn add_sample(&mut self, now_s: f64, basis: Option<Basis<'_>>, stale: bool) {
+        let Some(basis) = basis.filter(|_| !stale) else {
             self.entry = Some(
                 "fix the marked entries first: a sample takes the readings of a complete check"
                     .to_owned(),
@@ -619,26 +636,26 @@ impl Record {
         let Some(t_s) = self.entry_time(now_s) else {
             return;
         };
-        let readings = entry::readings(case, &self.spec);
+        let readings = entry::readings(basis.case, &self.spec);
         let mut spec = (*self.spec).clone();
         if let Err(why) = entry::add_sample(&mut spec, t_s, &readings) {
             self.entry = Some(why);
             return;
         }
-        self.begin(&mut spec, case, now_s);
+        self.begin(&mut spec, basis.case, now_s);
         self.note = Some(format!(
             "Added {} readings at {}.",
             readings.len(),
             elapsed_words(t_s)
         ));
         self.spec = Rc::new(spec);
-        self.analyse(Some(case));
+        self.analyse(Some(basis));
     }
 
-    fn mark_position(&mut self, now_s: f64, case: Option<&Case>, stale: bool) {
-        let Some((case, position)) = case
+    fn mark_position(&mut self, now_s: f64, basis: Option<Basis<'_>>, stale: bool) {
+        let Some((basis, position)) = basis
             .filter(|_| !stale)
-            .and_then(|c| Some((c, c.position.clone()?)))
+            .and_then(|b| Some((b, b.case.position.clone()?)))
         else {
             self.entry = Some(
                 "a position change takes the position of a complete check: set the position \
@@ -655,10 +672,10 @@ impl Record {
             self.entry = Some(why);
             return;
         }
-        self.begin(&mut spec, case, now_s);
+        self.begin(&mut spec, basis.case, now_s);
         self.note = Some(format!("Position change marked at {}.", elapsed_words(t_s)));
         self.spec = Rc::new(spec);
-        self.analyse(Some(case));
+        self.analyse(Some(basis));
     }
 
     /// Adds a blood pressure from the ward row at `t_s`; a record it begins
@@ -673,18 +690,18 @@ impl Record {
         t_s: f64,
         clock_start: Option<f64>,
         readings: &[(String, plumbline_core::units::PressureEntry)],
-        case: &Case,
+        basis: Basis<'_>,
     ) -> Result<(), String> {
         let mut spec = (*self.spec).clone();
         entry::add_sample(&mut spec, t_s, readings)?;
         self.ward.problem = None;
         if self.is_empty() {
-            self.start = case.position.clone();
+            self.start = basis.case.position.clone();
             spec.clock_start = clock_start.map(clock_words);
         }
         self.note = Some(format!("Added a reading at {}.", elapsed_words(t_s)));
         self.spec = Rc::new(spec);
-        self.analyse(Some(case));
+        self.analyse(Some(basis));
         Ok(())
     }
 
@@ -732,6 +749,23 @@ mod tests {
         Case::from_json(CASE_JSON).unwrap()
     }
 
+    /// A case with its scene, as the state's check leaves them.
+    struct Gated(Case, Scene);
+
+    impl Gated {
+        fn basis(&self) -> Basis<'_> {
+            Basis {
+                case: &self.0,
+                scene: &self.1,
+            }
+        }
+    }
+
+    fn gated(case: Case) -> Gated {
+        let scene = Scene::from_case(&case).unwrap();
+        Gated(case, scene)
+    }
+
     fn opened() -> Record {
         let mut r = Record::default();
         r.apply(
@@ -739,7 +773,7 @@ mod tests {
                 name: "beach-chair-record.csv".into(),
                 text: RECORD.into(),
             },
-            Some(&demo()),
+            Some(gated(demo()).basis()),
             false,
         );
         r
@@ -782,7 +816,7 @@ mod tests {
                 name: "bad.csv".into(),
                 text: bad.into(),
             },
-            Some(&demo()),
+            Some(gated(demo()).basis()),
             false,
         );
         assert_eq!(r.spec, before);
@@ -805,18 +839,30 @@ mod tests {
         r.apply(RecordAction::WhenMode(WhenMode::Elapsed), None, false);
         r.apply(RecordAction::WhenText("0:25:00".into()), None, false);
         let before = r.samples();
-        r.apply(RecordAction::AddSample { now_s: 0.0 }, Some(&demo()), false);
+        r.apply(
+            RecordAction::AddSample { now_s: 0.0 },
+            Some(gated(demo()).basis()),
+            false,
+        );
         assert_eq!(r.entry, None);
         // The file's channels only: line mean, cuff systolic and diastolic.
         assert_eq!(r.samples(), before + 3);
         assert_eq!(r.last_s(), Some(1500.0));
         // Again at the same time: refused, nothing added.
-        r.apply(RecordAction::AddSample { now_s: 0.0 }, Some(&demo()), false);
+        r.apply(
+            RecordAction::AddSample { now_s: 0.0 },
+            Some(gated(demo()).basis()),
+            false,
+        );
         assert!(r.entry.as_deref().unwrap().contains("already has"));
         assert_eq!(r.samples(), before + 3);
         // Not while the boxes on screen are not a complete check.
         r.apply(RecordAction::WhenText("+5".into()), None, false);
-        r.apply(RecordAction::AddSample { now_s: 0.0 }, Some(&demo()), true);
+        r.apply(
+            RecordAction::AddSample { now_s: 0.0 },
+            Some(gated(demo()).basis()),
+            true,
+        );
         assert!(r
             .entry
             .as_deref()
@@ -830,7 +876,7 @@ mod tests {
         let eight = 8.0 * 3600.0;
         r.apply(
             RecordAction::AddSample { now_s: eight },
-            Some(&demo()),
+            Some(gated(demo()).basis()),
             false,
         );
         assert_eq!(r.spec.clock_start.as_deref(), Some("08:00:00"));
@@ -838,12 +884,31 @@ mod tests {
             RecordAction::AddSample {
                 now_s: eight + 300.0,
             },
-            Some(&demo()),
+            Some(gated(demo()).basis()),
             false,
         );
         assert_eq!(r.last_s(), Some(300.0));
         assert_eq!(r.samples(), 12);
         assert!(r.analysis.is_some());
+    }
+
+    #[test]
+    fn the_analysis_reuses_the_checked_scene_unless_the_record_starts_elsewhere() {
+        let r = opened();
+        let here = gated(demo());
+        assert!(matches!(
+            r.checked(here.basis()).unwrap().0,
+            Cow::Borrowed(_)
+        ));
+        let mut moved = demo();
+        moved.position = Some(PositionSpec::new(Posture::Supine));
+        let moved = gated(moved);
+        let (scene, _) = r.checked(moved.basis()).unwrap();
+        assert!(
+            matches!(scene, Cow::Owned(_)),
+            "the record starts in the demo's position"
+        );
+        assert_eq!(scene.position, here.1.position);
     }
 
     #[test]
@@ -853,16 +918,17 @@ mod tests {
         let before = cpp(&r);
         let mut supine = demo();
         supine.position = Some(PositionSpec::new(Posture::Supine));
+        let supine = gated(supine);
         r.apply(RecordAction::WhenMode(WhenMode::Elapsed), None, false);
         r.apply(RecordAction::WhenText("0:10:00".into()), None, false);
         r.apply(
             RecordAction::MarkPosition { now_s: 0.0 },
-            Some(&supine),
+            Some(supine.basis()),
             false,
         );
         assert_eq!(r.entry, None);
         assert!(cpp(&r) < before, "lying flat lifts CPP at the tragus");
-        let joined = r.join(&supine);
+        let joined = r.join(&supine.0);
         assert_eq!(
             joined.position,
             demo().position,
@@ -870,7 +936,7 @@ mod tests {
         );
         let cli = record::Recorded::of_case(joined).unwrap().exposure();
         assert_eq!(r.analysis.as_ref().unwrap().exposure, cli);
-        r.apply(RecordAction::RemoveChange(0), Some(&supine), false);
+        r.apply(RecordAction::RemoveChange(0), Some(supine.basis()), false);
         assert!((cpp(&r) - before).abs() < 1e-9);
     }
 
@@ -884,7 +950,7 @@ mod tests {
             false,
         );
         assert!(r.pending && r.generation > g);
-        r.apply(RecordAction::Analyse, Some(&demo()), false);
+        r.apply(RecordAction::Analyse, Some(gated(demo()).basis()), false);
         assert!(!r.pending);
         let targets = &r.analysis.as_ref().unwrap().exposure.targets;
         assert!(targets.iter().any(|t| t.ignored_episodes > 0));
@@ -896,7 +962,7 @@ mod tests {
             .rules
             .contains("shorter than 1 min"));
         r.apply(RecordAction::Rule(Rule::Hold, "5000".into()), None, false);
-        r.apply(RecordAction::Analyse, Some(&demo()), false);
+        r.apply(RecordAction::Analyse, Some(gated(demo()).basis()), false);
         assert_eq!(r.fit.for_field(Rule::Hold.path()).count(), 1);
         assert!(r.analysis.is_some(), "the last good analysis stays");
         assert!(Rule::read("ten").is_err());

@@ -23,10 +23,11 @@ use plumbline_core::error::Errors;
 use plumbline_core::landmark::Landmark;
 use plumbline_core::reading::Level;
 use plumbline_core::report::Report;
+use plumbline_core::scene::Scene;
 use yew::{Reducible, UseReducerDispatcher, UseReducerHandle};
 
 use crate::form::{Edit, Form};
-use crate::record::{Record, RecordAction};
+use crate::record::{Basis, Record, RecordAction};
 use crate::session::{Session, SessionAction};
 pub use crate::theme::Theme;
 
@@ -43,6 +44,8 @@ pub struct Checked {
     pub report: Report,
     /// The case checked.
     pub case: Case,
+    /// The case as the core gated it, which the record's analysis reuses.
+    pub scene: Scene,
     /// The case as JSON, exactly as checked.
     pub case_json: String,
 }
@@ -118,14 +121,15 @@ impl State {
         // keystroke copies or checks it.
         self.record.adopt(&mut self.form);
         match self.form.to_case().and_then(|case| {
-            let report = check::check_case(&case)?;
-            Ok((case, report))
+            let (scene, report) = check::check_keeping_scene(&case)?;
+            Ok((case, scene, report))
         }) {
-            Ok((case, report)) => {
+            Ok((case, scene, report)) => {
                 self.checked = Some(Rc::new(Checked {
                     report,
                     case_json: case.to_json(),
                     case,
+                    scene,
                 }));
                 self.errors = Errors::default();
                 self.record.case_changed();
@@ -192,6 +196,14 @@ pub fn not_checked_words(n: usize) -> String {
 pub use crate::notes::Message;
 
 impl Checked {
+    /// The check as the record's analysis takes it.
+    pub fn basis(&self) -> Basis<'_> {
+        Basis {
+            case: &self.case,
+            scene: &self.scene,
+        }
+    }
+
     /// The landmarks worth a label in the picture: the heart reference, each
     /// checked organ's level, and every landmark a reading refers to.
     pub fn key_landmarks(&self) -> BTreeSet<Landmark> {
@@ -232,8 +244,9 @@ impl Reducible for State {
             Action::Session(action) => next.apply_session(action),
             Action::Record(action) => {
                 let stale = next.is_stale();
-                let case = next.checked.as_ref().map(|c| &c.case);
-                next.record.apply(action, case, stale);
+                let checked = next.checked.clone();
+                let basis = checked.as_deref().map(Checked::basis);
+                next.record.apply(action, basis, stale);
             }
             Action::AddReading { now_s } => next.add_reading(now_s),
         }

@@ -64,8 +64,8 @@ impl State {
                 .apply(Edit::Text(Slot::Source(i, SourcePart::BloodPressure), text));
             self.recheck();
         }
-        let case = match self.checked.as_ref().filter(|_| !self.is_stale()) {
-            Some(c) => c.case.clone(),
+        let checked = match self.checked.clone().filter(|_| !self.is_stale()) {
+            Some(c) => c,
             None => {
                 self.record.ward.problem = Some(
                     "the reading is on screen; fix the marked entries, then add it again"
@@ -77,7 +77,7 @@ impl State {
         let readings = bp_readings(&self.record.spec, &id, &bp);
         match self
             .record
-            .add_ward(at.t_s, at.clock_start, &readings, &case)
+            .add_ward(at.t_s, at.clock_start, &readings, checked.basis())
         {
             Ok(()) => {
                 self.record.ward.bp.clear();
