@@ -231,6 +231,9 @@ test('a ward record of five cuff readings on a phone: no scrolling between them'
   // The answer counts the record's exposure, from the core's statuses.
   const pin = await page.locator('.answer-pin').textContent();
   assert.match(pin, /Over the record, MAP at the heart at least 65 mmHg: below for [\d.]+ min of 20\.0 min observed/);
+  // The headline itself says it, whatever the last reading: the core's words.
+  const headline = await page.locator('.answer-pin .headline').textContent();
+  assert.match(headline, /Over the record, a target missed: Whole body for [\d.]+ min of 20\.0 min\./);
   // The latest reading is the one on screen.
   assert.equal(await quick(page).getByLabel('Blood pressure', { exact: true }).inputValue(), '112/68');
   await page.screenshot({ path: screenshotPath('ward-record-phone') });

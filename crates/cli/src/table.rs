@@ -5,7 +5,7 @@
 
 use std::fmt::Write;
 
-use plumbline_core::record::{elapsed_words, Exposure};
+use plumbline_core::record::{elapsed_words, headline, Exposure};
 use plumbline_core::report::{Report, Sweep};
 use plumbline_core::target::Status;
 use plumbline_core::text::{signed_cm, whole_mmhg as rounded};
@@ -252,6 +252,7 @@ fn write_exposure(out: &mut String, e: &Exposure) -> std::fmt::Result {
     writeln!(out, "Rules: {}", e.rules)?;
     writeln!(out, "Definitions: {}", e.definitions)?;
     writeln!(out)?;
+    writeln!(out, "{}", headline(&e.targets))?;
     for t in &e.targets {
         writeln!(out, "  {} {}", mark(t.status), t.target)?;
         writeln!(out, "        {}", t.words)?;

@@ -11,6 +11,7 @@ use crate::organ::{Metric, Organ};
 use crate::reading::Quantity;
 use crate::scene::Scene;
 use crate::target::Status;
+use crate::text::minutes;
 use crate::units::{to_mmhg, Pressure};
 
 /// Exposure outside one target over a record.
@@ -102,6 +103,41 @@ pub struct Exposure {
 pub const DEFINITIONS: &str = "time and area below a threshold as in studies of intraoperative \
     hypotension (e.g. Salmasi et al., Anesthesiology 2017); average depth (time-weighted) = area \
     divided by the observed time";
+
+/// What a record adds to the answer's headline, in one sentence: each organ
+/// that missed a followed target over time, with its longest time outside
+/// any of them, or that none did. The answer's own headline speaks of the
+/// readings now; this keeps ten minutes below target from hiding behind a
+/// good last reading.
+pub fn headline(targets: &[TargetExposure]) -> String {
+    let mut missed: Vec<(Organ, f64, f64)> = Vec::new();
+    for t in targets.iter().filter(|t| t.status.is_missed()) {
+        match missed.iter_mut().find(|m| m.0 == t.organ) {
+            Some(m) if t.outside_min > m.1 => *m = (t.organ, t.outside_min, t.observed_min),
+            Some(_) => {}
+            None => missed.push((t.organ, t.outside_min, t.observed_min)),
+        }
+    }
+    if missed.is_empty() {
+        return if targets.iter().any(|t| t.status == Status::Met) {
+            "Over the record: no followed target missed.".to_owned()
+        } else {
+            "Over the record: no followed target observed.".to_owned()
+        };
+    }
+    let organs: Vec<String> = missed
+        .iter()
+        .map(|(organ, outside, observed)| {
+            format!(
+                "{} for {} of {}",
+                organ.label(),
+                minutes(*outside),
+                minutes(*observed)
+            )
+        })
+        .collect();
+    format!("Over the record, a target missed: {}.", organs.join("; "))
+}
 
 /// An episode outside a target: its duration (s) and area (mmHg·s).
 type Episode = (f64, f64);

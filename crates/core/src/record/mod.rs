@@ -24,7 +24,7 @@ pub use channel::{
     arterial_channel, case_readings, channel_input, channel_name, input_range, sampling_of,
     Channel, Sampling,
 };
-pub use exposure::{analyze, Exposure, NotAnalysed, TargetExposure, DEFINITIONS};
+pub use exposure::{analyze, headline, Exposure, NotAnalysed, TargetExposure, DEFINITIONS};
 pub use rules::{
     elapsed_words, Rules, DEFAULT_GAP_MAX_S, DEFAULT_HOLD_MAX_S, DEFAULT_MIN_EPISODE_S,
     MAX_SAMPLES, MAX_SPAN_S,

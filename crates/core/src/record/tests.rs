@@ -6,6 +6,7 @@ use super::*;
 use crate::case::Case;
 use crate::case::{ChannelSpec, RulesSpec};
 use crate::organ::{Metric, Organ};
+use crate::target::Status;
 use crate::units::{to_mmhg, PressureUnit};
 use proptest::prelude::*;
 
@@ -47,7 +48,7 @@ fn close(a: f64, b: f64) -> bool {
 
 // Definitions: time and area below a threshold as reported in studies of
 // intraoperative hypotension (Salmasi et al., Anesthesiology 2017);
-// time-weighted average = area / observed time. Expected values by hand.
+// average depth (time-weighted) = area / observed time. Expected values by hand.
 
 #[test]
 fn a_held_step_series() {
@@ -72,6 +73,44 @@ fn a_held_step_series() {
     assert_eq!(x.episodes, 1);
     assert_eq!(x.worst_mmhg, Some(60.0));
     assert_eq!(x.worst_at_s, Some(300.0));
+}
+
+#[test]
+fn the_headline_names_each_organ_that_missed_a_target_over_time() {
+    let s = scene("cuff");
+    let held = |v: &[f64]| {
+        let tl = timeline(
+            &s,
+            "a.mean",
+            &[0.0, 300.0, 600.0, 900.0],
+            v,
+            RulesSpec::default(),
+        );
+        analyze(&s, &tl, None)
+    };
+    // 5 of 15 min below 65 at the heart; the ICP ceiling has no samples.
+    let dipped = held(&[70.0, 60.0, 70.0, 70.0]);
+    assert_eq!(
+        headline(&dipped.targets),
+        "Over the record, a target missed: Whole body for 5.0 min of 15.0 min."
+    );
+    let good = held(&[70.0, 70.0, 70.0, 70.0]);
+    assert_eq!(
+        headline(&good.targets),
+        "Over the record: no followed target missed."
+    );
+    let unobserved: Vec<TargetExposure> = good
+        .targets
+        .iter()
+        .map(|t| TargetExposure {
+            status: Status::NotObserved,
+            ..t.clone()
+        })
+        .collect();
+    assert_eq!(
+        headline(&unobserved),
+        "Over the record: no followed target observed."
+    );
 }
 
 #[test]

@@ -4,9 +4,8 @@
 //! of a phone and as a column beside the inputs on a tablet. The core
 //! decides every verdict; this only lays them out.
 
-use plumbline_core::record::TargetExposure;
+use plumbline_core::record::{headline, TargetExposure};
 use plumbline_core::report::Summary;
-use plumbline_core::target::Status;
 use plumbline_core::text::minutes;
 use yew::prelude::*;
 
@@ -30,18 +29,9 @@ pub struct VerdictsProps {
 
 /// The record's part of the answer, from the core's statuses.
 fn record_lines(record: &[TargetExposure]) -> Html {
-    let missed: Vec<&TargetExposure> = record
-        .iter()
-        .filter(|t| matches!(t.status, Status::Below | Status::Above))
-        .collect();
-    let count = |s: Status| record.iter().filter(|t| t.status == s).count();
+    let missed: Vec<&TargetExposure> = record.iter().filter(|t| t.status.is_missed()).collect();
     if missed.is_empty() {
-        return html! {
-            <p class="answer-record">
-                { format!("Over the record: no followed target missed ({} met, {} not observed).",
-                    count(Status::Met), count(Status::NotObserved)) }
-            </p>
-        };
+        return Html::default();
     }
     html! {
         <ul class="answer-record">
@@ -70,6 +60,9 @@ pub fn Verdicts(props: &VerdictsProps) -> Html {
                 }
                 if props.stale { <span class="tag tag-stale">{ "STALE" }</span>{ " last good check: " } }
                 { s.headline.clone() }
+                if let Some(record) = &props.record {
+                    { " " }{ headline(record) }
+                }
             </p>
             if props.stale && !props.needed.is_empty() {
                 <p class="answer-needed">{ format!("To update it, enter: {}.", props.needed.join("; ")) }</p>
