@@ -15,7 +15,8 @@ pub struct AngleInputProps {
     pub angle: AngleKey,
     /// Its text as typed; empty for the posture's preset.
     pub text: AttrValue,
-    /// The posture's preset, shown in an empty box.
+    /// The posture's preset, shown in an empty box as the usual angle the
+    /// check then uses, so an empty box never reads as zero or as typed.
     pub preset: Option<AttrValue>,
     /// The messages about it.
     pub messages: Vec<Message>,
@@ -44,11 +45,12 @@ pub fn AngleInput(props: &AngleInputProps) -> Html {
         e.prevent_default();
         Some(Edit::Step(key, delta))
     });
+    let usual = props.preset.as_ref().map(|p| AttrValue::from(format!("{p} (usual)")));
     html! {
         <PlainInput label={key.label()} path={key.path()} slot={Slot::Angle(key)}
             text={props.text.clone()} messages={props.messages.clone()}
             inputmode={if key.signed() { "text" } else { "decimal" }} suffix="°"
-            placeholder={props.preset.clone()} onedit={props.onedit.clone()}
+            placeholder={usual} onedit={props.onedit.clone()}
             onkeydown={onkeydown} keys="ArrowUp ArrowDown">
             <button type="button" class="step" tabindex="-1" onclick={step(-5.0)}
                 aria-label={format!("{} 5 degrees less", key.label())}>{ "−5" }</button>
