@@ -352,10 +352,16 @@ pub fn replay(decoder: Decoder, inputs: &[(String, Vec<u8>)]) -> Report {
     report
 }
 
+/// The largest input a campaign keeps as a starting point.
+pub const POOL_INPUT_BYTES: usize = 64 * 1024;
+
 /// A random campaign of `executions` mutated inputs from `seeds`, seeded
 /// by `seed` (the same seed gives the same inputs). Inputs that get
-/// further than refusal join the pool of starting points (up to a
-/// bound). `progress` is called about every ten seconds.
+/// further than refusal join the pool of starting points (up to a bound,
+/// and only those of at most [`POOL_INPUT_BYTES`]: the mutations still
+/// build large inputs from them, but a pool left to grow drifts to
+/// megabyte records that each take milliseconds, and a campaign of ten
+/// million then takes days). `progress` is called about every ten seconds.
 pub fn campaign(
     decoder: Decoder,
     seeds: &[(String, Vec<u8>)],
@@ -375,7 +381,10 @@ pub fn campaign(
         let input = mutate::mutate(decoder, &mut rng, &dictionary, &pool);
         let (took, outcome) = timed(decoder, &input, report.slowest_time());
         report.count("", &input, took, &outcome);
-        if matches!(outcome, Ok(Reached::Read | Reached::Checked)) && rng.below(8) == 0 {
+        if matches!(outcome, Ok(Reached::Read | Reached::Checked))
+            && input.len() <= POOL_INPUT_BYTES
+            && rng.below(8) == 0
+        {
             if pool.len() < fixed + POOL {
                 pool.push(input);
             } else if let Some(slot) = pool.get_mut(fixed + rng.below(POOL)) {

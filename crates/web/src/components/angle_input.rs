@@ -45,7 +45,10 @@ pub fn AngleInput(props: &AngleInputProps) -> Html {
         e.prevent_default();
         Some(Edit::Step(key, delta))
     });
-    let usual = props.preset.as_ref().map(|p| AttrValue::from(format!("{p} (usual)")));
+    let usual = props
+        .preset
+        .as_ref()
+        .map(|p| AttrValue::from(format!("{p} (usual)")));
     html! {
         <PlainInput label={key.label()} path={key.path()} slot={Slot::Angle(key)}
             text={props.text.clone()} messages={props.messages.clone()}
