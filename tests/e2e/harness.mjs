@@ -153,7 +153,9 @@ export function checkWithCli(caseJson) {
 
 /**
  * Runs `plumbline record CSV --case CASE --json` (with any further
- * arguments, e.g. `--min-episode-s 60`) on a record file's text and a case.
+ * arguments, e.g. `--min-episode-s 60`) on a record file's text and a case;
+ * `tableStatus` adds the status word the same command's table prints for
+ * each followed target.
  */
 export function recordWithCli(csvText, caseJson, args = []) {
   const dir = mkdtempSync(join(tmpdir(), 'plumbline-record-'));
@@ -161,11 +163,19 @@ export function recordWithCli(csvText, caseJson, args = []) {
   const file = join(dir, 'case.json');
   writeFileSync(csv, csvText);
   writeFileSync(file, caseJson);
+  const run = (more) => execFileSync(cli(), ['record', csv, '--case', file, ...more, ...args], {
+    encoding: 'utf8',
+    maxBuffer: 64 * 1024 * 1024,
+  });
   try {
-    return JSON.parse(execFileSync(cli(), ['record', csv, '--case', file, '--json', ...args], {
-      encoding: 'utf8',
-      maxBuffer: 64 * 1024 * 1024,
-    }));
+    const exposure = JSON.parse(run(['--json']));
+    // The table's status word for each followed target, as printed:
+    // `  [BELOW] CPP at least 60 mmHg`.
+    exposure.tableStatus = Object.fromEntries(run([]).split('\n')
+      .map((line) => line.match(/^ {2}\[([A-Z ]+)\] ([^:]+)$/))
+      .filter(Boolean)
+      .map((m) => [m[2], m[1]]));
+    return exposure;
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }

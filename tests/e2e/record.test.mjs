@@ -70,6 +70,7 @@ async function matchesCli(page, exposure) {
     const group = panel(page).getByRole('group', { name: t.target, exact: true });
     // The core's status word, as the CLI's table prints it in brackets.
     const word = { met: 'MET', below: 'BELOW', above: 'ABOVE', not_observed: 'NOT OBSERVED' }[t.status] ?? 'NOT EVALUATED';
+    assert.equal(exposure.tableStatus[t.target], word, `${t.target}: the table's word`);
     const want = [word, ...expectedFor(t)];
     await until(async () => {
       const text = await group.textContent();
