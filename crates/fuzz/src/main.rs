@@ -1,8 +1,8 @@
 //! `plumbline-fuzz`: replays the fuzzing corpus, or runs a random campaign
 //! against one decoder or all of them, each input under `catch_unwind`,
 //! and says what it found: executions, panics, how far inputs got, the
-//! slowest input. Panicking inputs and each campaign's slowest input are
-//! written to `fuzz/artifacts/<decoder>/` for a closer look.
+//! slowest input. Panicking inputs and each campaign's slowest input (kept
+//! current while it runs) are written to `fuzz/artifacts/<decoder>/`.
 //!
 //! ```text
 //! plumbline-fuzz replay [DECODER...]              # the corpus and the seeds, once each
@@ -17,17 +17,29 @@ use std::process::ExitCode;
 
 use plumbline_fuzz::{campaign, replay, root, Decoder, Report};
 
-fn save(decoder: Decoder, report: &Report, slowest: bool) {
+fn artifacts(decoder: Decoder) -> Option<std::path::PathBuf> {
     let dir = root().join("fuzz").join("artifacts").join(decoder.name());
-    if std::fs::create_dir_all(&dir).is_err() {
-        eprintln!("plumbline-fuzz: cannot write {}", dir.display());
-        return;
+    match std::fs::create_dir_all(&dir) {
+        Ok(()) => Some(dir),
+        Err(_) => {
+            eprintln!("plumbline-fuzz: cannot write {}", dir.display());
+            None
+        }
     }
+}
+
+fn save_panics(decoder: Decoder, report: &Report) {
+    let Some(dir) = artifacts(decoder) else {
+        return;
+    };
     for (i, (message, input)) in report.panics.iter().enumerate() {
         let _ = std::fs::write(dir.join(format!("panic-{i}")), input);
         eprintln!("plumbline-fuzz: {}: panic {i}: {message}", decoder.name());
     }
-    if let (true, Some((_, _, input))) = (slowest, &report.slowest) {
+}
+
+fn save_slowest(decoder: Decoder, report: &Report) {
+    if let (Some(dir), Some((_, _, input))) = (artifacts(decoder), &report.slowest) {
         let _ = std::fs::write(dir.join("slowest"), input);
     }
 }
@@ -52,11 +64,15 @@ fn number(arg: Option<&String>, default: u64) -> Result<u64, String> {
 
 fn run(decoder: Decoder, executions: u64, seed: u64) -> bool {
     let seeds = decoder.seeds(&root());
+    // The slowest input so far is saved with each progress line, so a
+    // campaign stopped early still leaves it behind to replay.
     let report = campaign(decoder, &seeds, executions, seed, |r| {
         eprintln!("  {}", r.summary(decoder));
+        save_slowest(decoder, r);
     });
     println!("{}", report.summary(decoder));
-    save(decoder, &report, true);
+    save_panics(decoder, &report);
+    save_slowest(decoder, &report);
     report.panics.is_empty()
 }
 
@@ -70,7 +86,7 @@ fn main() -> ExitCode {
             for decoder in list {
                 let report = replay(decoder, &decoder.seeds(&root()));
                 println!("{}", report.summary(decoder));
-                save(decoder, &report, false);
+                save_panics(decoder, &report);
                 clean &= report.panics.is_empty();
             }
             clean
