@@ -153,7 +153,7 @@ test('a valid case with markup in a label shows it as text only', async () => {
   const { page, context } = await open(env.chrome.browser, env.server.url, { address: `${env.server.url}#${fragmentOf(json)}` });
   page.on('dialog', () => assert.fail('a dialog opened'));
   await page.getByRole('status').filter({ hasText: 'Opened the check from the shared link' }).waitFor();
-  assert.equal(await page.getByLabel('Short label (no names)').inputValue(), label);
+  assert.equal(await (await showSource(page)).getByLabel('Short label (no names)').inputValue(), label);
   assert.equal(await page.locator('b[onmouseover]').count(), 0, 'no element made from the label');
   await context.close();
 });

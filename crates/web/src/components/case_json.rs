@@ -3,6 +3,8 @@
 
 use yew::prelude::*;
 
+use crate::components::fold::Fold;
+
 /// Props of [`CaseJson`].
 #[derive(Properties, PartialEq)]
 pub struct CaseJsonProps {
@@ -17,8 +19,7 @@ pub struct CaseJsonProps {
 pub fn CaseJson(props: &CaseJsonProps) -> Html {
     html! {
         <section class="panel case-json" aria-labelledby="h-json">
-            <details class="more">
-                <summary id="h-json">{ "Case as JSON (for handover)" }</summary>
+            <Fold title="Case as JSON (for handover)" title_id="h-json">
                 <p class="hint">
                     if props.stale {
                         { "The case of the last good check; the marked boxes are not in it yet. " }
@@ -27,7 +28,7 @@ pub fn CaseJson(props: &CaseJsonProps) -> Html {
                 </p>
                 <textarea readonly=true aria-label="Case as JSON" rows="16" spellcheck="false"
                     value={props.json.clone()} />
-            </details>
+            </Fold>
         </section>
     }
 }

@@ -1,6 +1,11 @@
-//! A folded section of the inputs, one tap away. It opens by itself when a
-//! real problem lies inside, and only the clinician closes it again: a fold
-//! never shuts under the finger because a mistake was just put right.
+//! A section folded away, one tap from view: the inputs' folds, an organ's
+//! derivation, the case as JSON. What it holds is built and put in the page
+//! only while it is open, so a keystroke elsewhere does not re-render (nor
+//! the browser lay out) the many boxes and words nobody is looking at.
+//!
+//! It opens by itself when `open_when` becomes true (a real problem inside,
+//! a value entered), and only the clinician closes it again: a fold never
+//! shuts under the finger because a mistake was just put right.
 
 use web_sys::HtmlDetailsElement;
 use yew::prelude::*;
@@ -10,8 +15,15 @@ use yew::prelude::*;
 pub struct FoldProps {
     /// The title, always in view.
     pub title: AttrValue,
-    /// Whether a problem lies inside (the fold then opens).
-    pub problem: bool,
+    /// Opens the fold when it becomes true (at the start, or later).
+    #[prop_or_default]
+    pub open_when: bool,
+    /// Classes beside `more`.
+    #[prop_or_default]
+    pub class: Classes,
+    /// The title's id, for a section labelled by it.
+    #[prop_or_default]
+    pub title_id: Option<AttrValue>,
     /// What it holds.
     pub children: Html,
 }
@@ -19,11 +31,11 @@ pub struct FoldProps {
 /// The fold.
 #[component]
 pub fn Fold(props: &FoldProps) -> Html {
-    let open = use_state_eq(|| props.problem);
+    let open = use_state_eq(|| props.open_when);
     {
         let open = open.clone();
-        use_effect_with(props.problem, move |problem| {
-            if *problem {
+        use_effect_with(props.open_when, move |when| {
+            if *when {
                 open.set(true);
             }
         });
@@ -35,9 +47,11 @@ pub fn Fold(props: &FoldProps) -> Html {
         })
     };
     html! {
-        <details class="more fold" open={*open} {ontoggle}>
-            <summary>{ &props.title }</summary>
-            { props.children.clone() }
+        <details class={classes!("more", props.class.clone())} open={*open} {ontoggle}>
+            <summary id={props.title_id.clone()}>{ &props.title }</summary>
+            if *open {
+                { props.children.clone() }
+            }
         </details>
     }
 }

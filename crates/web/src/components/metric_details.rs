@@ -5,6 +5,7 @@ use plumbline_core::report::MetricReport;
 use plumbline_core::target::Status;
 use yew::prelude::*;
 
+use crate::components::fold::Fold;
 use crate::components::status_badge::StatusBadge;
 use crate::show::rounded;
 
@@ -65,48 +66,59 @@ pub fn MetricDetails(props: &MetricDetailsProps) -> Html {
             if let Some(grade) = &m.grade {
                 <p class="grade">{ grade.words.clone() }</p>
             }
-            <details class="more">
-                <summary>{ format!("How {} = {} mmHg was found", m.label, rounded(m.value_mmhg)) }</summary>
-                <ol class="steps">
-                    { for m.steps.iter().map(|s| html! { <li>{ s.what.clone() }</li> }) }
-                </ol>
-                if let Some(o) = &m.outflow {
-                    <p>
-                        { format!("Outflow (waterfall): the higher of {}, so {} at {} mmHg.",
-                            o.candidates.iter()
-                                .map(|c| format!("{} {} mmHg", c.quantity.label(), rounded(c.value_mmhg)))
-                                .collect::<Vec<_>>().join(", "),
-                            o.winner.label(), rounded(o.value_mmhg)) }
-                    </p>
-                }
-                { for m.targets.iter().filter(|t| !t.threshold_steps.is_empty()).map(|t| html! {
-                    <>
-                        <p>{ format!("Threshold of “{}”:", t.target) }</p>
-                        <ol class="steps">
-                            { for t.threshold_steps.iter().map(|s| html! { <li>{ s.what.clone() }</li> }) }
-                        </ol>
-                    </>
-                }) }
-                if !m.contributions.is_empty() {
-                    <table>
-                        <caption>{ "What moves the range (mmHg)" }</caption>
-                        <thead>
-                            <tr><th scope="col">{ "Input" }</th><th scope="col">{ "Down" }</th>
-                                <th scope="col">{ "Up" }</th></tr>
-                        </thead>
-                        <tbody>
-                            { for m.contributions.iter().map(|c| html! {
-                                <tr><th scope="row">{ c.input.clone() }</th>
-                                    <td class="num">{ signed(c.down_mmhg) }</td>
-                                    <td class="num">{ signed(c.up_mmhg) }</td></tr>
-                            }) }
-                        </tbody>
-                    </table>
-                }
-                if !m.assumed.is_empty() {
-                    <p class="hint">{ "An assumed value's own error is not part of the range." }</p>
-                }
-            </details>
+            <Fold title={format!("How {} = {} mmHg was found", m.label, rounded(m.value_mmhg))}>
+                <Derivation metric={m.clone()} />
+            </Fold>
         </div>
+    }
+}
+
+/// How the metric was found: its steps, the waterfall's choice, the
+/// targets' thresholds and what moves its range (built only when opened).
+#[component]
+fn Derivation(props: &MetricDetailsProps) -> Html {
+    let m = &props.metric;
+    html! {
+        <>
+            <ol class="steps">
+                { for m.steps.iter().map(|s| html! { <li>{ s.what.clone() }</li> }) }
+            </ol>
+            if let Some(o) = &m.outflow {
+                <p>
+                    { format!("Outflow (waterfall): the higher of {}, so {} at {} mmHg.",
+                        o.candidates.iter()
+                            .map(|c| format!("{} {} mmHg", c.quantity.label(), rounded(c.value_mmhg)))
+                            .collect::<Vec<_>>().join(", "),
+                        o.winner.label(), rounded(o.value_mmhg)) }
+                </p>
+            }
+            { for m.targets.iter().filter(|t| !t.threshold_steps.is_empty()).map(|t| html! {
+                <>
+                    <p>{ format!("Threshold of “{}”:", t.target) }</p>
+                    <ol class="steps">
+                        { for t.threshold_steps.iter().map(|s| html! { <li>{ s.what.clone() }</li> }) }
+                    </ol>
+                </>
+            }) }
+            if !m.contributions.is_empty() {
+                <table>
+                    <caption>{ "What moves the range (mmHg)" }</caption>
+                    <thead>
+                        <tr><th scope="col">{ "Input" }</th><th scope="col">{ "Down" }</th>
+                            <th scope="col">{ "Up" }</th></tr>
+                    </thead>
+                    <tbody>
+                        { for m.contributions.iter().map(|c| html! {
+                            <tr><th scope="row">{ c.input.clone() }</th>
+                                <td class="num">{ signed(c.down_mmhg) }</td>
+                                <td class="num">{ signed(c.up_mmhg) }</td></tr>
+                        }) }
+                    </tbody>
+                </table>
+            }
+            if !m.assumed.is_empty() {
+                <p class="hint">{ "An assumed value's own error is not part of the range." }</p>
+            }
+        </>
     }
 }

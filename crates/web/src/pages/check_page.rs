@@ -53,7 +53,7 @@ pub struct CheckPageProps {
 
 /// A folded section of the inputs, one tap away.
 fn fold(title: String, problem: bool, body: Html) -> Html {
-    html! { <Fold title={title} problem={problem}>{ body }</Fold> }
+    html! { <Fold title={title} open_when={problem} class="fold">{ body }</Fold> }
 }
 
 /// The check screen.
@@ -62,10 +62,9 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
     let s = &props.state;
     let stale = s.is_stale();
     let notes = s.notes();
-    let onedit = {
-        let d = s.dispatcher();
-        Callback::from(move |e: Edit| d.dispatch(Action::Edit(e)))
-    };
+    // One callback for the page's life: a new one at every render would
+    // count as a change and re-render every panel it is handed to.
+    let onedit = use_callback(s.dispatcher(), |e: Edit, d| d.dispatch(Action::Edit(e)));
     let onprint = Callback::from(|_: MouseEvent| {
         if let Some(w) = web_sys::window() {
             // A refused print dialog leaves the screen as it is.
