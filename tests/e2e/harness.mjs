@@ -226,8 +226,20 @@ export async function until(probe, what, ms = 15000) {
   }
 }
 
-/** The page's "case as JSON" (opening its panel without moving the focus). */
+/**
+ * Waits until what was typed is checked: the screen checks once typing
+ * pauses, and marks the answer as updating until then.
+ */
+export async function settled(page) {
+  await page.locator('.answer-pin[aria-busy="false"]').waitFor({ state: 'attached' });
+}
+
+/**
+ * The page's "case as JSON" of what was typed (opening its panel without
+ * moving the focus, once the check has caught up with the typing).
+ */
 export async function caseJsonOf(page) {
+  await settled(page);
   await page.locator('.case-json details').evaluate((d) => { d.open = true; });
   return page.getByRole('textbox', { name: 'Case as JSON' }).inputValue();
 }

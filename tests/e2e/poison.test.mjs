@@ -23,7 +23,7 @@ import assert from 'node:assert/strict';
 import { readFileSync, existsSync } from 'node:fs';
 import { deflateRawSync } from 'node:zlib';
 import { join } from 'node:path';
-import { suite, open, until, caseJsonOf, root, showSource } from './harness.mjs';
+import { suite, open, until, caseJsonOf, root, showSource, settled } from './harness.mjs';
 
 const env = suite();
 
@@ -105,6 +105,7 @@ test('a saved check whose opening did not finish last time is set aside unopened
 test('a link whose opening did not finish is not opened again; the saved check opens', async () => {
   const { page, context, problems } = await open(env.chrome.browser, env.server.url);
   await (await radial(page)).getByLabel('Mean', { exact: true }).fill('84');
+  await settled(page);
   await until(async () => (await page.evaluate(() => localStorage.getItem('plumbline.state')))?.includes('"84"'), 'the check saved');
   const fragment = `#${fragmentOf(JSON.stringify(manySources(3)))}`;
   // As the page leaves it when it froze while opening the link; the

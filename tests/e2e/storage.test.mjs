@@ -17,7 +17,7 @@ import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { suite, open, until, caseJsonOf, screenshotPath, root, showSource, unfold } from './harness.mjs';
+import { suite, open, until, caseJsonOf, screenshotPath, root, showSource, unfold, settled } from './harness.mjs';
 
 const env = suite();
 
@@ -147,6 +147,8 @@ test('every unreadable part has its own notice and copy, kept beside the earlier
 
   // The app saves again, and a second failure joins the first four.
   await (await radial(page)).getByLabel('Mean', { exact: true }).fill('79');
+  // Saved once typing pauses, with the check.
+  await settled(page);
   await until(async () => (await rescuedKeys(page)).length === 4, 'four copies kept');
   await until(async () => (await page.evaluate(() => localStorage.getItem('plumbline.state')))?.includes('"79"'), 'the new check saved');
   await page.evaluate(() => localStorage.setItem('plumbline.state', 'second failure'));
@@ -183,6 +185,7 @@ test('the record over time survives an unreadable state', async () => {
   assert.equal(await page.getByLabel('Body height', { exact: true }).inputValue(), '', 'a blank check');
   // Rendered and saved again, the record is still on the device.
   await (await radial(page)).getByLabel('Mean', { exact: true }).fill('70');
+  await settled(page);
   await until(async () => (await page.evaluate(() => localStorage.getItem('plumbline.state')))?.includes('"70"'), 'the new check saved');
   assert.equal(await page.evaluate(() => localStorage.getItem('plumbline.record')), record);
   await page.reload();

@@ -8,6 +8,7 @@
 //! component that offers it: downloads, the clipboard).
 
 use gloo::events::EventListener;
+use gloo::timers::callback::Timeout;
 use wasm_bindgen::JsCast;
 use yew::prelude::*;
 
@@ -15,7 +16,7 @@ use crate::browser;
 use crate::pages::check_page::CheckPage;
 use crate::persist::{self, Elsewhere, Persisted};
 use crate::session::{is_link, Opening, SessionAction};
-use crate::state::{Action, State};
+use crate::state::{Action, State, CHECK_PAUSE_MS};
 
 /// Props of [`App`].
 #[derive(Properties, PartialEq, Default)]
@@ -40,6 +41,16 @@ pub fn App(_props: &AppProps) -> Html {
             })
         })
     };
+    // What was typed is checked once typing pauses: each keystroke drops
+    // the waiting timer and starts another.
+    {
+        let d = state.dispatcher();
+        use_effect_with((state.pending, state.keystrokes), move |(pending, _)| {
+            let timer =
+                pending.then(|| Timeout::new(CHECK_PAUSE_MS, move || d.dispatch(Action::Recheck)));
+            move || drop(timer)
+        });
+    }
     let theme = state.theme;
     use_effect_with(theme, move |theme| {
         if let Some(root) = gloo::utils::document().document_element() {
@@ -47,13 +58,20 @@ pub fn App(_props: &AppProps) -> Html {
             let _ = root.set_attribute("data-theme", theme.key());
         }
     });
-    // After every change: the device's copy follows the screen; and when
-    // the page is hidden or closed, at once, even before the next render.
+    // After every change (typing: once it pauses): the device's copy
+    // follows the screen; and when the page is hidden or closed, at once,
+    // even before the next render.
     {
         let (state, persisted, opening) = (state.clone(), persisted.clone(), opening.clone());
         use_effect(move || {
             if std::mem::take(&mut *opening.borrow_mut()) {
                 persist::note_opening(None);
+            }
+            // While typing, the copy waits for the pause (each keystroke
+            // would otherwise write the whole form); a page hidden or
+            // closed meanwhile is written at once below.
+            if state.pending {
+                return;
             }
             let synced = persisted.borrow_mut().sync(&state);
             if synced.ok == state.session.not_saved {

@@ -155,7 +155,8 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
             <p class="sr-only" aria-live="polite">{ s.announcement() }</p>
             <div class="screen">
                 <div class="col-answer">
-                    <div class={classes!("pane", "answer-pin", stale.then_some("stale-pin"))}>
+                    <div class={classes!("pane", "answer-pin", stale.then_some("stale-pin"), s.pending.then_some("updating"))}
+                        aria-busy={if s.pending { "true" } else { "false" }}>
                         if let Some(c) = &checked {
                             <Verdicts summary={c.report.summary.clone()} stale={stale}
                                 invented={!invented.is_empty() || s.shows_demo()} record={record}

@@ -1,8 +1,13 @@
 //! The screen's one state and the reducer that changes it.
 //!
 //! Every change goes through [`State::reduce`]: the form takes the change,
-//! then the core checks the case again. A case that cannot be checked keeps
-//! the last good report on screen, marked stale, with every problem named.
+//! then the core checks the case again. Typing is the exception: a
+//! keystroke only changes the form and marks the answer as updating, and
+//! the check runs once typing pauses ([`Action::Recheck`], sent by the app
+//! after [`CHECK_PAUSE_MS`]), or at once when any other action comes first,
+//! so a slow tablet never holds a keystroke behind a check and a render of
+//! every result. A case that cannot be checked keeps the last good report
+//! on screen, marked stale, with every problem named.
 //!
 //! The reducer is pure: it computes the next state and touches nothing
 //! else. Saving on the device, the address's fragment, the clipboard and
@@ -67,13 +72,23 @@ pub struct State {
     pub session: Session,
     /// The record over time, held beside the form (`record`).
     pub record: Record,
+    /// Whether the form was typed into since the last check.
+    pub pending: bool,
+    /// Keystrokes so far (wrapping): each one restarts the pause.
+    pub keystrokes: u32,
 }
+
+/// The pause in typing after which the check runs: short enough to read
+/// as at once, long enough that a run of keystrokes costs one check.
+pub const CHECK_PAUSE_MS: u32 = 150;
 
 /// Every change to the state.
 #[derive(Clone, Debug, PartialEq)]
 pub enum Action {
     /// A change to the form.
     Edit(Edit),
+    /// The check of what was typed, once typing pauses.
+    Recheck,
     /// The demo case, as on start.
     LoadDemo,
     /// Another colour theme.
@@ -108,6 +123,8 @@ impl State {
             demo,
             session: Session::default(),
             record: Record::default(),
+            pending: false,
+            keystrokes: 0,
         };
         if state.errors.is_empty() {
             state.recheck();
@@ -117,6 +134,7 @@ impl State {
 
     /// Checks the form's case with the core.
     pub(crate) fn recheck(&mut self) {
+        self.pending = false;
         // A record riding in the form's case moves beside it first, so no
         // keystroke copies or checks it.
         self.record.adopt(&mut self.form);
@@ -244,11 +262,21 @@ impl Reducible for State {
 
     fn reduce(self: Rc<Self>, action: Action) -> Rc<Self> {
         let mut next = (*self).clone();
+        // Anything but typing acts on the form as it is now, checked.
+        if next.pending && !matches!(action, Action::Edit(Edit::Text(..) | Edit::Step(..))) {
+            next.recheck();
+        }
         match action {
+            Action::Edit(edit @ (Edit::Text(..) | Edit::Step(..))) => {
+                next.form.apply(edit);
+                next.pending = true;
+                next.keystrokes = next.keystrokes.wrapping_add(1);
+            }
             Action::Edit(edit) => {
                 next.form.apply(edit);
                 next.recheck();
             }
+            Action::Recheck => {}
             Action::LoadDemo => next.replace_with_demo(),
             Action::Theme(theme) => next.theme = theme,
             Action::Session(action) => next.apply_session(action),
@@ -279,7 +307,8 @@ pub(crate) mod testing {
     /// The first source's mean typed as `text`.
     pub fn edit(state: State, text: &str) -> State {
         let slot = Slot::Source(0, SourcePart::Mean);
-        Rc::try_unwrap(Rc::new(state).reduce(Action::Edit(Edit::Text(slot, text.into())))).unwrap()
+        let typed = Rc::new(state).reduce(Action::Edit(Edit::Text(slot, text.into())));
+        Rc::try_unwrap(typed.reduce(Action::Recheck)).unwrap()
     }
 
     /// The demo with a record of 600 samples, as the screen holds it.
@@ -299,8 +328,37 @@ mod tests {
     use super::*;
     use crate::form::{Slot, SourcePart};
 
+    /// `action` applied, and the check the pause in typing would bring.
     fn reduce(state: State, action: Action) -> State {
-        Rc::try_unwrap(Rc::new(state).reduce(action)).unwrap()
+        let next = Rc::new(state).reduce(action).reduce(Action::Recheck);
+        Rc::try_unwrap(next).unwrap()
+    }
+
+    #[test]
+    fn typing_waits_for_the_pause_and_any_other_action_checks_first() {
+        let state = State::demo(Theme::Device);
+        let before = state.checked.clone().unwrap();
+        let slot = Slot::Source(0, SourcePart::Mean);
+        let typed = Rc::new(state).reduce(Action::Edit(Edit::Text(slot, "80".into())));
+        assert!(typed.pending);
+        assert_eq!(typed.checked.as_ref().unwrap(), &before, "not checked yet");
+        let again = typed
+            .clone()
+            .reduce(Action::Edit(Edit::Text(slot, "81".into())));
+        assert_ne!(
+            again.keystrokes, typed.keystrokes,
+            "each key restarts the pause"
+        );
+        let checked = again.clone().reduce(Action::Recheck);
+        assert!(!checked.pending);
+        assert!(checked.checked.as_ref().unwrap().case_json.contains("81"));
+        // A tap on anything else checks what was typed before acting.
+        let themed = again.reduce(Action::Theme(Theme::Dark));
+        assert!(!themed.pending);
+        assert!(themed.checked.as_ref().unwrap().case_json.contains("81"));
+        // A choice (not typing) is checked at once.
+        let chosen = themed.reduce(Action::Edit(Edit::AddSource));
+        assert!(!chosen.pending);
     }
 
     #[test]
