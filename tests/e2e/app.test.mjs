@@ -127,6 +127,37 @@ test('a new position and a new reading change the results as the core predicts',
   await context.close();
 });
 
+test('a run of keystrokes is checked once typing pauses, not at every key, and the answer says it is updating meanwhile', async () => {
+  const { page, context, problems } = await open(env.chrome.browser, env.server.url);
+  const pin = page.locator('.answer-pin');
+  const cpp = organ(page, 'Brain').getByRole('group', { name: 'CPP', exact: true }).locator('.value');
+  const before = await cpp.textContent();
+  const box = page.locator('.quick').getByLabel('Blood pressure', { exact: true });
+  await box.fill('');
+  await page.locator('.answer-pin[aria-busy="false"]').waitFor();
+  // Counts the answer's updates: each is marked busy, then checked.
+  await pin.evaluate((el) => {
+    window.__checks = 0;
+    let busy = false;
+    new MutationObserver(() => {
+      const now = el.getAttribute('aria-busy') === 'true';
+      if (busy && !now) window.__checks += 1;
+      busy = now;
+    }).observe(el, { attributes: true, attributeFilter: ['aria-busy'] });
+  });
+  const keys = '100/60 (80)';
+  await box.pressSequentially(keys);
+  await until(async () => (await page.evaluate(() => window.__checks)) > 0, 'the check after the pause');
+  await page.locator('.answer-pin[aria-busy="false"]').waitFor();
+  assert.equal(await box.inputValue(), keys, 'every key in the box');
+  const checks = await page.evaluate(() => window.__checks);
+  assert.ok(checks < keys.length, `${checks} checks for ${keys.length} keys`);
+  assert.notEqual(await cpp.textContent(), before);
+  await matchesCli(page);
+  assert.deepEqual(problems, [], 'no script errors');
+  await context.close();
+});
+
 test('a unit switch converts the box and leaves the results unchanged', async () => {
   const { page, context } = await open(env.chrome.browser, env.server.url);
   const before = await matchesCli(page);

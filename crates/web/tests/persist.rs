@@ -46,7 +46,8 @@ fn act(state: State, action: Action) -> State {
 
 fn mean(state: State, text: &str) -> State {
     let slot = Slot::Source(0, SourcePart::Mean);
-    act(state, Action::Edit(Edit::Text(slot, text.into())))
+    let typed = act(state, Action::Edit(Edit::Text(slot, text.into())));
+    act(typed, Action::Recheck)
 }
 
 /// Starts as the app does, from what local storage holds now.

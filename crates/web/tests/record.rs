@@ -48,6 +48,7 @@ fn a_keystroke_leaves_the_record_alone_until_the_pause() {
     let before = state.record.analysis.clone().unwrap();
     let slot = Slot::Target(0, TargetPart::Bound);
     let state = state.reduce(Action::Edit(Edit::Text(slot, "70".into())));
+    let state = state.reduce(Action::Recheck);
     assert!(state.record.pending);
     assert!(Rc::ptr_eq(state.record.analysis.as_ref().unwrap(), &before));
     let state = state.reduce(Action::Record(RecordAction::Analyse));
