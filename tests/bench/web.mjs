@@ -12,7 +12,7 @@ import { join } from 'node:path';
 import { loadavg, cpus } from 'node:os';
 import { brotliCompressSync, deflateRawSync, constants } from 'node:zlib';
 import { execFileSync } from 'node:child_process';
-import { serve, launch } from '../e2e/harness.mjs';
+import { serve, launch, showSource } from '../e2e/harness.mjs';
 
 const [dist, bare, workload, runsArg] = process.argv.slice(2);
 const RUNS = Number(runsArg ?? 10);
@@ -37,9 +37,16 @@ function bytes(dir, files) {
 
 // In every page: when the first result appears (a selector given per
 // page), and for each keystroke the time from its keydown to the frame
-// after the first DOM change it caused (rAF, then a message: after paint).
+// after the first DOM change it caused (rAF, then a message: after paint),
+// and, in Plumbline, to the frame after the answer is no longer marked as
+// updating (the check of what was typed, once typing pauses, painted).
 const probe = (selector) => `(() => {
-  const b = window.__bench = { first: null, keys: [] };
+  const b = window.__bench = { first: null, keys: [], results: [] };
+  const painted = (list, t0) => requestAnimationFrame(() => {
+    const ch = new MessageChannel();
+    ch.port1.onmessage = () => list.push(performance.now() - t0);
+    ch.port2.postMessage(0);
+  });
   const seen = () => {
     if (b.first === null && document.querySelector(${JSON.stringify(selector)})) {
       b.first = performance.now();
@@ -48,24 +55,34 @@ const probe = (selector) => `(() => {
   };
   new MutationObserver(seen).observe(document, { subtree: true, childList: true });
   let watching = null;
+  let answering = null;
   addEventListener('keydown', (e) => {
     const t0 = e.timeStamp;
     watching?.disconnect();
+    answering?.disconnect();
     const mo = watching = new MutationObserver(() => {
       mo.disconnect();
-      requestAnimationFrame(() => {
-        const ch = new MessageChannel();
-        ch.port1.onmessage = () => b.keys.push(performance.now() - t0);
-        ch.port2.postMessage(0);
-      });
+      painted(b.keys, t0);
     });
     mo.observe(document.body, { subtree: true, childList: true, characterData: true, attributes: true });
+    const pin = document.querySelector('.answer-pin');
+    if (!pin) return;
+    let busy = false;
+    const ao = answering = new MutationObserver(() => {
+      const now = pin.getAttribute('aria-busy') === 'true';
+      if (busy && !now) {
+        ao.disconnect();
+        painted(b.results, t0);
+      }
+      busy = now;
+    });
+    ao.observe(pin, { attributes: true, attributeFilter: ['aria-busy'] });
   }, true);
 })();`;
 
 const pages = {
-  plumbline: { dir: dist, selector: '#h-verdicts', box: (p) => p.getByRole('group', { name: /Arterial source 1/ }).getByLabel('Mean', { exact: true }) },
-  bare: { dir: bare, selector: 'h1', box: (p) => p.getByLabel('Text') },
+  plumbline: { dir: dist, selector: '#h-verdicts', box: async (p) => (await showSource(p)).getByLabel('Mean', { exact: true }) },
+  bare: { dir: bare, selector: 'h1', box: async (p) => p.getByLabel('Text') },
 };
 
 const loadBefore = loadavg()[0];
@@ -112,20 +129,21 @@ async function keystrokes(name, rate, prepare) {
   await firstResult(page);
   await prepare?.(page);
   await cdp.send('Emulation.setCPUThrottlingRate', { rate });
-  const box = pages[name].box(page);
+  const box = await pages[name].box(page);
   await box.click();
   await page.keyboard.press('End');
-  await page.evaluate(() => { window.__bench.keys = []; });
+  await page.evaluate(() => { window.__bench.keys = []; window.__bench.results = []; });
   for (let i = 0; i < KEYS; i += 1) {
     await page.keyboard.press(i % 2 === 0 ? 'Backspace' : (i % 4 === 1 ? '6' : '5'));
     await page.waitForFunction((n) => window.__bench.keys.length >= n, i + 1);
-    // Each key alone: the record is analysed once typing pauses for
-    // 300 ms, so wait past that pause and for the analysis to end.
+    if (name === 'plumbline') await page.waitForFunction((n) => window.__bench.results.length >= n, i + 1);
+    // Each key alone: the check runs once typing pauses, and the record
+    // is analysed 300 ms after it, so wait past that and for it to end.
     await page.waitForFunction(() => !document.querySelector('[aria-busy="true"]'), null, { timeout: 60000 });
     await page.waitForTimeout(350);
     await page.waitForFunction(() => !document.querySelector('[aria-busy="true"]'), null, { timeout: 60000 });
   }
-  const times = await page.evaluate(() => window.__bench.keys);
+  const times = await page.evaluate(() => ({ keys: window.__bench.keys, results: window.__bench.results }));
   await context.close();
   return times;
 }
@@ -189,7 +207,13 @@ console.log(row('everything, gzip -9', size.plumbline.all.gzip, size.bare.all.gz
 console.log(row('everything, brotli', size.plumbline.all.brotli, size.bare.all.brotli, kb));
 console.log(row('first result, cold, 4x CPU', median(results.plumbline.cold), median(results.bare.cold), ms));
 console.log(row('first result, warm (offline cache; bare: HTTP cache), 4x CPU', median(results.plumbline.warm), median(results.bare.warm), ms));
-console.log(keyRow('keystroke to paint, 1x', typing['case, 1x'], typing['bare, 1x']));
-console.log(keyRow('keystroke to paint, 4x', typing['case, 4x'], typing['bare, 4x']));
-console.log(keyRow('keystroke to paint, 1x, eight-hour record', typing['record, 1x'], typing['bare, 1x']));
-console.log(keyRow('keystroke to paint, 4x, eight-hour record', typing['record, 4x'], typing['bare, 4x']));
+const key = (label) => typing[label].keys;
+console.log(keyRow('keystroke to paint, 1x', key('case, 1x'), key('bare, 1x')));
+console.log(keyRow('keystroke to paint, 4x', key('case, 4x'), key('bare, 4x')));
+console.log(keyRow('keystroke to paint, 1x, eight-hour record', key('record, 1x'), key('bare, 1x')));
+console.log(keyRow('keystroke to paint, 4x, eight-hour record', key('record, 4x'), key('bare, 4x')));
+// The answer follows once typing pauses (the pause is in these times).
+const result = (label) => typing[label].results;
+console.log(keyRow('keystroke to its checked answer painted, 1x', result('case, 1x')));
+console.log(keyRow('keystroke to its checked answer painted, 4x', result('case, 4x')));
+console.log(keyRow('keystroke to its checked answer painted, 4x, eight-hour record', result('record, 4x')));
