@@ -48,7 +48,14 @@ async fn the_app_mounts_with_the_demo_results() {
     let root = document.create_element("div").unwrap();
     document.body().unwrap().append_child(&root).unwrap();
     yew::Renderer::<plumbline_web::app::App>::with_root(root.clone()).render();
-    settle().await;
+    // The answer is painted first; each organ in detail follows a frame later.
+    for _ in 0..100 {
+        settle().await;
+        if root.query_selector(".results").unwrap().is_some() {
+            break;
+        }
+    }
+    assert!(root.query_selector("#h-verdicts").unwrap().is_some());
 
     let headings: Vec<String> = {
         let list = root.query_selector_all("h2, h3").unwrap();

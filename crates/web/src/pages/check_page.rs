@@ -8,6 +8,8 @@
 //! The page is the only component that holds the state: it makes the notes
 //! and the callbacks, and every part below receives values.
 
+use gloo::render::request_animation_frame;
+use gloo::timers::callback::Timeout;
 use plumbline_core::error::ErrorKind;
 use plumbline_core::record::TargetExposure;
 use yew::prelude::*;
@@ -60,6 +62,21 @@ fn fold(title: String, problem: bool, body: Html) -> Html {
 #[component]
 pub fn CheckPage(props: &CheckPageProps) -> Html {
     let s = &props.state;
+    // The answer first: each organ in detail, the folds and the record are
+    // built just after the first frame is painted (a timer set from the
+    // frame's callback runs after it), so on a slow tablet the verdict and
+    // the quick path show as soon as the app has started.
+    let whole = use_state_eq(|| false);
+    {
+        let whole = whole.clone();
+        use_effect_with((), move |_| {
+            let frame = request_animation_frame(move |_| {
+                Timeout::new(0, move || whole.set(true)).forget();
+            });
+            move || drop(frame)
+        });
+    }
+    let whole = *whole;
     let stale = s.is_stale();
     let notes = s.notes();
     // One callback for the page's life: a new one at every render would
@@ -171,7 +188,7 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                             </section>
                         }
                     </div>
-                    if let Some(c) = &checked {
+                    if let (Some(c), true) = (&checked, whole) {
                         <div class="results">
                             <section class={classes!("pane", "pane-results", stale.then_some("stale"))}
                                 aria-labelledby="h-organs">
@@ -219,29 +236,33 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                             notes={notes.clone()} onedit={onedit.clone()} />
                         <ConcernPicker concern={form.concern.clone()} onedit={onedit.clone()} />
                     </section>
-                    <section class="pane folds" aria-label="More detail">
-                        { fold("Position in detail: other angles, arms".to_owned(), has("position."),
-                            html! { <PositionPanel position={form.position.clone()} notes={notes.clone()} onedit={onedit.clone()} /> }) }
-                        { fold(format!("Arterial sources ({})", form.sources.len()), has("arterial"),
-                            html! { <SourcesPanel sources={form.sources.clone()} rows={rows}
-                                notes={notes.clone()} onedit={onedit.clone()} /> }) }
-                        { fold(format!("Other pressures and assumed values ({})", form.readings.len() + form.assumed.len()),
-                            has("readings") || has("assume"),
-                            html! { <ReadingsPanel readings={form.readings.clone()} assumed={form.assumed.clone()}
-                                notes={notes.clone()} onedit={onedit.clone()} /> }) }
-                        { fold(if form.baseline.is_some() { "Baseline blood pressure".to_owned() } else { "Baseline blood pressure (none)".to_owned() },
-                            has("baseline"),
-                            html! { <BaselinePanel baseline={form.baseline.clone()} notes={notes.clone()} onedit={onedit.clone()} /> }) }
-                        { fold(format!("Targets ({}{})", form.targets.len(), if form.custom_targets { ", this case's own" } else { ", defaults" }),
-                            has("targets"),
-                            html! { <TargetsPanel targets={form.targets.clone()} custom={form.custom_targets}
-                                notes={notes.clone()} onedit={onedit.clone()} /> }) }
-                        { fold("Haematocrit".to_owned(), has("patient.haematocrit"),
-                            html! { <PatientPanel haematocrit={form.haematocrit.clone()} notes={notes.clone()} onedit={onedit.clone()} /> }) }
-                    </section>
+                    if whole {
+                        <section class="pane folds" aria-label="More detail">
+                            { fold("Position in detail: other angles, arms".to_owned(), has("position."),
+                                html! { <PositionPanel position={form.position.clone()} notes={notes.clone()} onedit={onedit.clone()} /> }) }
+                            { fold(format!("Arterial sources ({})", form.sources.len()), has("arterial"),
+                                html! { <SourcesPanel sources={form.sources.clone()} rows={rows}
+                                    notes={notes.clone()} onedit={onedit.clone()} /> }) }
+                            { fold(format!("Other pressures and assumed values ({})", form.readings.len() + form.assumed.len()),
+                                has("readings") || has("assume"),
+                                html! { <ReadingsPanel readings={form.readings.clone()} assumed={form.assumed.clone()}
+                                    notes={notes.clone()} onedit={onedit.clone()} /> }) }
+                            { fold(if form.baseline.is_some() { "Baseline blood pressure".to_owned() } else { "Baseline blood pressure (none)".to_owned() },
+                                has("baseline"),
+                                html! { <BaselinePanel baseline={form.baseline.clone()} notes={notes.clone()} onedit={onedit.clone()} /> }) }
+                            { fold(format!("Targets ({}{})", form.targets.len(), if form.custom_targets { ", this case's own" } else { ", defaults" }),
+                                has("targets"),
+                                html! { <TargetsPanel targets={form.targets.clone()} custom={form.custom_targets}
+                                    notes={notes.clone()} onedit={onedit.clone()} /> }) }
+                            { fold("Haematocrit".to_owned(), has("patient.haematocrit"),
+                                html! { <PatientPanel haematocrit={form.haematocrit.clone()} notes={notes.clone()} onedit={onedit.clone()} /> }) }
+                        </section>
+                    }
                 </main>
-                <RecordPanel record={s.record.clone()} checked={checked.clone()} stale={stale}
-                    sources={sources} dispatch={s.dispatcher()} />
+                if whole {
+                    <RecordPanel record={s.record.clone()} checked={checked.clone()} stale={stale}
+                        sources={sources} dispatch={s.dispatcher()} />
+                }
             </div>
             <Caution />
         </>
