@@ -82,12 +82,20 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
     // One callback for the page's life: a new one at every render would
     // count as a change and re-render every panel it is handed to.
     let onedit = use_callback(s.dispatcher(), |e: Edit, d| d.dispatch(Action::Edit(e)));
-    let onprint = Callback::from(|_: MouseEvent| {
-        if let Some(w) = web_sys::window() {
-            // A refused print dialog leaves the screen as it is.
-            let _ = w.print();
-        }
-    });
+    // What was just typed is checked and on the page before it prints.
+    let onprint = {
+        let d = s.dispatcher();
+        Callback::from(move |_: MouseEvent| {
+            d.dispatch(Action::Recheck);
+            Timeout::new(0, || {
+                if let Some(w) = web_sys::window() {
+                    // A refused print dialog leaves the screen as it is.
+                    let _ = w.print();
+                }
+            })
+            .forget();
+        })
+    };
     // Asks first: a gloved tap must not wipe what was entered.
     let ondemo = {
         let d = s.dispatcher();
