@@ -3,9 +3,9 @@
 
 use plumbline_core::report::MetricReport;
 use plumbline_core::target::Status;
+use web_sys::HtmlDetailsElement;
 use yew::prelude::*;
 
-use crate::components::fold::Fold;
 use crate::components::status_badge::StatusBadge;
 use crate::show::rounded;
 
@@ -28,6 +28,15 @@ fn signed(v: f64) -> String {
 #[component]
 pub fn MetricDetails(props: &MetricDetailsProps) -> Html {
     let m = &props.metric;
+    // The derivation is built only while it is open (a plain function
+    // here, not a component of its own: one less in the download).
+    let open = use_state_eq(|| false);
+    let ontoggle = {
+        let open = open.clone();
+        Callback::from(move |e: Event| {
+            open.set(e.target_unchecked_into::<HtmlDetailsElement>().open());
+        })
+    };
     html! {
         <div class="metric" role="group" aria-label={m.label}>
             <div class="metric-head">
@@ -66,18 +75,19 @@ pub fn MetricDetails(props: &MetricDetailsProps) -> Html {
             if let Some(grade) = &m.grade {
                 <p class="grade">{ grade.words.clone() }</p>
             }
-            <Fold title={format!("How {} = {} mmHg was found", m.label, rounded(m.value_mmhg))}>
-                <Derivation metric={m.clone()} />
-            </Fold>
+            <details class="more" open={*open} {ontoggle}>
+                <summary>{ format!("How {} = {} mmHg was found", m.label, rounded(m.value_mmhg)) }</summary>
+                if *open {
+                    { derivation(m) }
+                }
+            </details>
         </div>
     }
 }
 
 /// How the metric was found: its steps, the waterfall's choice, the
-/// targets' thresholds and what moves its range (built only when opened).
-#[component]
-fn Derivation(props: &MetricDetailsProps) -> Html {
-    let m = &props.metric;
+/// targets' thresholds and what moves its range.
+fn derivation(m: &MetricReport) -> Html {
     html! {
         <>
             <ol class="steps">

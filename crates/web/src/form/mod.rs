@@ -645,8 +645,12 @@ impl Form {
                     self.concern.retain(|o| *o != organ);
                 } else {
                     self.concern.push(organ);
-                    self.concern
-                        .sort_by_key(|o| Organ::ALL.iter().position(|a| a == o));
+                    // In the screen's order of organs (taken from that
+                    // order: no sort of its own in the download).
+                    self.concern = Organ::ALL
+                        .into_iter()
+                        .filter(|o| self.concern.contains(o))
+                        .collect();
                 }
             }
         }
