@@ -13,7 +13,7 @@ import { execFileSync } from 'node:child_process';
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { deflateRawSync } from 'node:zlib';
-import { suite, open, cli, root } from './harness.mjs';
+import { suite, open, cli, root, settled } from './harness.mjs';
 
 const env = suite();
 
@@ -85,6 +85,7 @@ for (const name of examples) {
       address: env.server.url + fragmentOf(json),
     });
     await page.getByRole('status').filter({ hasText: 'Opened the check from the shared link' }).waitFor();
+    await settled(page);
     const screen = await screenOf(page);
     assert.deepEqual(screen.map((o) => o.label).sort(), [...table.keys()].sort(), 'the same organs');
     for (const organ of screen) {

@@ -122,6 +122,7 @@ export async function open(browser, url, options = {}) {
   await page.goto(options.address ?? url);
   if (options.wait !== false) {
     await page.getByRole('heading', { name: "At the organs' own height" }).waitFor();
+    await whole(page);
   }
   return { context, page, foreign, problems };
 }
@@ -227,10 +228,21 @@ export async function until(probe, what, ms = 15000) {
 }
 
 /**
- * Waits until what was typed is checked: the screen checks once typing
- * pauses, and marks the answer as updating until then.
+ * Waits until the whole screen is built: the answer and the quick path
+ * are painted first, each organ in detail, the folds and the record just
+ * after (the folds' section is there once they are).
+ */
+export async function whole(page) {
+  await page.locator('section.folds').waitFor({ state: 'attached' });
+}
+
+/**
+ * Waits until the screen is whole and what was typed is checked: the
+ * screen checks once typing pauses, and marks the answer as updating
+ * until then.
  */
 export async function settled(page) {
+  await whole(page);
   await page.locator('.answer-pin[aria-busy="false"]').waitFor({ state: 'attached' });
 }
 
