@@ -28,10 +28,25 @@ pub struct FoldProps {
     pub children: Html,
 }
 
+/// Whether a `<details>` is open, starting as `initially`, and the handler
+/// for its `toggle` event that follows the clinician's taps: what builds
+/// its body only while open (the fold, an organ's derivation) shares it.
+#[hook]
+pub fn use_open(initially: bool) -> (UseStateHandle<bool>, Callback<Event>) {
+    let open = use_state_eq(|| initially);
+    let ontoggle = {
+        let open = open.clone();
+        Callback::from(move |e: Event| {
+            open.set(e.target_unchecked_into::<HtmlDetailsElement>().open());
+        })
+    };
+    (open, ontoggle)
+}
+
 /// The fold.
 #[component]
 pub fn Fold(props: &FoldProps) -> Html {
-    let open = use_state_eq(|| props.open_when);
+    let (open, ontoggle) = use_open(props.open_when);
     {
         let open = open.clone();
         use_effect_with(props.open_when, move |when| {
@@ -40,12 +55,6 @@ pub fn Fold(props: &FoldProps) -> Html {
             }
         });
     }
-    let ontoggle = {
-        let open = open.clone();
-        Callback::from(move |e: Event| {
-            open.set(e.target_unchecked_into::<HtmlDetailsElement>().open());
-        })
-    };
     html! {
         <details class={classes!("more", props.class.clone())} open={*open} {ontoggle}>
             <summary id={props.title_id.clone()}>{ &props.title }</summary>

@@ -3,9 +3,9 @@
 
 use plumbline_core::report::MetricReport;
 use plumbline_core::target::Status;
-use web_sys::HtmlDetailsElement;
 use yew::prelude::*;
 
+use crate::components::fold::use_open;
 use crate::components::status_badge::StatusBadge;
 use crate::show::rounded;
 
@@ -30,13 +30,7 @@ pub fn MetricDetails(props: &MetricDetailsProps) -> Html {
     let m = &props.metric;
     // The derivation is built only while it is open (a plain function
     // here, not a component of its own: one less in the download).
-    let open = use_state_eq(|| false);
-    let ontoggle = {
-        let open = open.clone();
-        Callback::from(move |e: Event| {
-            open.set(e.target_unchecked_into::<HtmlDetailsElement>().open());
-        })
-    };
+    let (open, ontoggle) = use_open(false);
     html! {
         <div class="metric" role="group" aria-label={m.label}>
             <div class="metric-head">
