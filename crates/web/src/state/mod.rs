@@ -261,6 +261,11 @@ impl Reducible for State {
     type Action = Action;
 
     fn reduce(self: Rc<Self>, action: Action) -> Rc<Self> {
+        // Nothing typed waits (Print asks every time): the same state, so
+        // nothing is cloned and the page is not rendered again.
+        if action == Action::Recheck && !self.pending {
+            return self;
+        }
         let mut next = (*self).clone();
         // Anything but typing acts on the form as it is now, checked.
         if next.pending && !matches!(action, Action::Edit(Edit::Text(..) | Edit::Step(..))) {
@@ -351,6 +356,8 @@ mod tests {
         );
         let checked = again.clone().reduce(Action::Recheck);
         assert!(!checked.pending);
+        let idle = checked.clone().reduce(Action::Recheck);
+        assert!(Rc::ptr_eq(&idle, &checked), "nothing waits: the same state");
         assert!(checked.checked.as_ref().unwrap().case_json.contains("81"));
         // A tap on anything else checks what was typed before acting.
         let themed = again.reduce(Action::Theme(Theme::Dark));
