@@ -108,6 +108,16 @@ pub enum Action {
 impl State {
     /// The screen on start: the demo case, checked.
     pub fn demo(theme: Theme) -> Self {
+        let mut state = State::demo_unchecked(theme);
+        if state.errors.is_empty() {
+            state.recheck();
+        }
+        state
+    }
+
+    /// The demo case in the form, not yet checked: a start that opens a
+    /// saved check or a link instead checks only what it shows.
+    pub(super) fn demo_unchecked(theme: Theme) -> Self {
         // The demo is read by the core's own reader, as saved checks and
         // share links are: one reader in the download (a second, plain
         // serde reader of the case cost 17 KB gzip).
@@ -115,7 +125,7 @@ impl State {
             Ok(case) => (Form::of_demo(&case), Errors::default(), Some(Rc::new(case))),
             Err(errors) => (Form::from_case(&Case::new()), errors, None),
         };
-        let mut state = State {
+        State {
             form,
             checked: None,
             errors,
@@ -125,11 +135,7 @@ impl State {
             record: Record::default(),
             pending: false,
             keystrokes: 0,
-        };
-        if state.errors.is_empty() {
-            state.recheck();
         }
-        state
     }
 
     /// Checks the form's case with the core.

@@ -67,7 +67,7 @@ impl State {
         fragment: Option<&str>,
         mark: &mut dyn FnMut(Option<&Opening>),
     ) -> State {
-        let mut state = State::demo(Theme::Device);
+        let mut state = State::demo_unchecked(Theme::Device);
         state.session.visit = stored.visit;
         for (key, raw) in stored.rescued {
             if let Some(rescued) = earlier(key, raw) {
@@ -101,6 +101,10 @@ impl State {
                     shown = Some(link);
                 }
             }
+        }
+        // Nothing else was opened: the demo is checked now, once.
+        if state.checked.is_none() && state.errors.is_empty() {
+            state.recheck();
         }
         mark(shown.as_ref());
         state
@@ -246,6 +250,24 @@ mod tests {
         assert!(state.shows_demo());
         assert_eq!(state.session, Session::default());
         assert_eq!(marks, [None], "nothing was opened");
+    }
+
+    #[test]
+    fn a_link_on_a_fresh_device_sets_no_demo_aside() {
+        // The demo is not checked before the link replaces it, and is
+        // still untouched: nothing to keep.
+        let mut shared = Case::from_json(CASE_JSON).unwrap();
+        shared.patient.height = Some(plumbline_core::units::LengthEntry::cm(180.0));
+        let (state, _) = start(
+            Stored::default(),
+            Some(&format!("#{}", share::encode(&shared))),
+        );
+        assert_eq!(state.checked.as_ref().map(|c| &c.case), Some(&shared));
+        assert_eq!(state.session.kept, None);
+        // A refused link leaves the demo on screen, checked.
+        let (refused, _) = start(Stored::default(), Some("#p9.x"));
+        assert!(refused.shows_demo());
+        assert!(refused.checked.is_some());
     }
 
     #[test]

@@ -36,7 +36,10 @@ impl State {
     /// Whether the check on screen holds anything worth setting aside: a
     /// record, or boxes that are neither blank nor the untouched demo.
     pub(super) fn worth_keeping(&self) -> bool {
-        let untouched_demo = self.shows_demo() && !self.is_stale();
+        // Nothing checked and nothing wrong happens only at start, with the
+        // demo not yet checked: untouched too.
+        let unchecked_start = self.checked.is_none() && self.errors.is_empty();
+        let untouched_demo = unchecked_start || self.shows_demo() && !self.is_stale();
         !self.record.is_empty() || !untouched_demo && self.form != Form::from_case(&blank_case())
     }
 
