@@ -8,36 +8,10 @@
 //! DEVELOPERS.md.
 
 use criterion::{criterion_group, criterion_main, Criterion, Throughput};
-use plumbline_bench::{analyze, import, record_csv, scene, timeline, ROWS, ROWS_72H};
+use plumbline_bench::{
+    analyze, csv_crate_columns, import, record_csv, scene, timeline, ROWS, ROWS_72H,
+};
 use std::hint::black_box;
-
-/// The 72-hour file read with the `csv` crate into the same columns the
-/// importer fills (times and values per channel, empty cells skipped),
-/// with none of its checks; the number of samples.
-fn csv_crate_reference(text: &str) -> usize {
-    let mut columns: Vec<(Vec<f64>, Vec<f64>)> = vec![(Vec::new(), Vec::new()); 4];
-    let mut reader = csv::ReaderBuilder::new()
-        .flexible(true)
-        .from_reader(text.as_bytes());
-    let mut record = csv::StringRecord::new();
-    while let Ok(true) = reader.read_record(&mut record) {
-        let Some(Ok(t)) = record.get(0).map(|c| c.trim().parse::<f64>()) else {
-            continue;
-        };
-        for (i, (times, values)) in columns.iter_mut().enumerate() {
-            if let Some(Ok(v)) = record
-                .get(i + 1)
-                .map(str::trim)
-                .filter(|c| !c.is_empty())
-                .map(str::parse::<f64>)
-            {
-                times.push(t);
-                values.push(v);
-            }
-        }
-    }
-    columns.iter().map(|c| c.0.len()).sum()
-}
 
 fn bench(c: &mut Criterion) {
     let (Ok(scene), text) = (scene(), record_csv(ROWS)) else {
@@ -62,7 +36,7 @@ fn bench(c: &mut Criterion) {
 
     let long = record_csv(ROWS_72H);
     // Both read every sample, or the comparison means nothing.
-    if import(&scene, &long).ok() != Some(csv_crate_reference(&long)) {
+    if import(&scene, &long).ok() != Some(csv_crate_columns(&long)) {
         eprintln!("record: the reference reading of the 72-hour file differs");
         return;
     }
@@ -73,7 +47,7 @@ fn bench(c: &mut Criterion) {
         b.iter(|| import(&scene, black_box(&long)))
     });
     group.bench_function("csv crate reference (no checks)", |b| {
-        b.iter(|| csv_crate_reference(black_box(&long)))
+        b.iter(|| csv_crate_columns(black_box(&long)))
     });
     group.finish();
 }

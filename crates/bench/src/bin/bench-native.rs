@@ -3,12 +3,16 @@
 //! record's steps, and the 72-hour file's import in MB/s (by the clock,
 //! and by the CPU time it took, which a busy machine inflates less) with
 //! the peak memory it takes (Linux: the resident high-water mark, reset
-//! before the import).
+//! before the import), beside the `csv` crate reading the same file, with
+//! and without its numbers, as the "library speed" it is held to.
 
 use std::process::ExitCode;
 use std::time::Instant;
 
-use plumbline_bench::{analyze, import, record_csv, scene, timeline, ROWS, ROWS_72H};
+use plumbline_bench::{
+    analyze, csv_crate_columns, csv_crate_records, import, record_csv, scene, timeline, ROWS,
+    ROWS_72H,
+};
 
 /// The median of `runs` timings of `f`, milliseconds.
 fn median_ms(runs: usize, mut f: impl FnMut()) -> f64 {
@@ -79,6 +83,15 @@ fn main() -> ExitCode {
     };
     // First, while the heap holds little else.
     let peak = import_peak_bytes(&scene, &long).unwrap_or(f64::NAN);
+    // The floor reads what the importer keeps, or the comparison means nothing.
+    let (floor, records) = (csv_crate_columns(&long), csv_crate_records(&long));
+    if (floor, records) != (long_samples, ROWS_72H) {
+        eprintln!(
+            "bench-native: the csv crate read {floor} samples in {records} records, \
+             the importer {long_samples} in {ROWS_72H}"
+        );
+        return ExitCode::FAILURE;
+    }
     let import_ms = median_ms(15, || {
         let _ = std::hint::black_box(import(&scene, &text));
     });
@@ -91,11 +104,25 @@ fn main() -> ExitCode {
     let long_cpu_ms = median_cpu_ms(9, || {
         let _ = std::hint::black_box(import(&scene, &long));
     });
+    let csv_parse_ms = median_ms(9, || {
+        std::hint::black_box(csv_crate_columns(&long));
+    });
+    let csv_parse_cpu_ms = median_cpu_ms(9, || {
+        std::hint::black_box(csv_crate_columns(&long));
+    });
+    let csv_read_ms = median_ms(9, || {
+        std::hint::black_box(csv_crate_records(&long));
+    });
+    let csv_read_cpu_ms = median_cpu_ms(9, || {
+        std::hint::black_box(csv_crate_records(&long));
+    });
     let mb = long.len() as f64 / 1e6;
     println!(
         "{{\"rows\": {ROWS}, \"samples\": {samples}, \"import_ms\": {import_ms:.3}, \"analyze_ms\": {analyze_ms:.3}, \
          \"rows_72h\": {ROWS_72H}, \"samples_72h\": {long_samples}, \"mb_72h\": {mb:.3}, \"import_72h_ms\": {long_ms:.3}, \
-         \"import_72h_mb_s\": {:.1}, \"import_72h_cpu_ms\": {long_cpu_ms:.3}, \"import_72h_peak_mb\": {:.1}}}",
+         \"import_72h_mb_s\": {:.1}, \"import_72h_cpu_ms\": {long_cpu_ms:.3}, \"import_72h_peak_mb\": {:.1}, \
+         \"csv_crate_parse_72h_ms\": {csv_parse_ms:.3}, \"csv_crate_parse_72h_cpu_ms\": {csv_parse_cpu_ms:.3}, \
+         \"csv_crate_read_72h_ms\": {csv_read_ms:.3}, \"csv_crate_read_72h_cpu_ms\": {csv_read_cpu_ms:.3}}}",
         mb / long_ms * 1000.0,
         peak / 1e6
     );
