@@ -136,6 +136,32 @@ impl Rows<'_> {
         true
     }
 
+    /// Gives each wide column room for `rows_left` more rows at the share
+    /// of the `rows_read` it filled, and a little more, within the samples
+    /// the file may still bring; `shrink_to_fit` at the end returns what
+    /// was not used. Room that cannot be had is left to the columns' usual
+    /// growth.
+    pub(super) fn reserve(&mut self, rows_read: usize, rows_left: usize) {
+        let Layout::Wide { columns, .. } = &mut self.layout else {
+            return;
+        };
+        let rows_left = rows_left.min(MAX_CSV_ROWS);
+        // Never more room in all than the samples a file may still bring.
+        let mut budget = MAX_SAMPLES.saturating_sub(self.samples);
+        for column in columns.iter_mut().flatten() {
+            let filled = column.t_s.len();
+            let more = filled.saturating_mul(rows_left) / rows_read.max(1);
+            let more = more
+                .saturating_add(more / 50)
+                .saturating_add(16)
+                .min(budget);
+            budget -= more;
+            // Only an allocation that fails is refused here, never a panic.
+            let _ = column.t_s.try_reserve_exact(more);
+            let _ = column.values.try_reserve_exact(more);
+        }
+    }
+
     /// The channels read, once every row is: a wide file's columns as they
     /// are, a long file's channels sorted by time, each with its problems.
     pub(super) fn channels(&mut self) -> Vec<ChannelSpec> {

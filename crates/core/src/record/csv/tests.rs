@@ -166,3 +166,37 @@ fn empty_and_headless_files() {
     assert!(import("elapsed_s,radial line.mean [mmHg]\n", &scene()).is_err());
     assert!(import("when,radial line.mean [mmHg]\n0,1\n", &scene()).is_err());
 }
+
+#[test]
+fn a_long_wide_file_reads_whole_past_the_columns_given_room() {
+    // Past RESERVE_AFTER_ROWS the columns get room at the rate they filled;
+    // the cuff fills more sparsely later on, and the lines grow longer, so
+    // the estimate is wrong both ways and nothing may be lost for it.
+    let rows = 3 * RESERVE_AFTER_ROWS;
+    let mut text = String::from("elapsed_s,radial line.mean [mmHg],icp [cmH2O]\n");
+    let (mut line_times, mut icp_times) = (Vec::new(), Vec::new());
+    for i in 0..rows {
+        let t = i as f64 * 0.5;
+        let icp = if i < RESERVE_AFTER_ROWS || i % 9 == 0 {
+            icp_times.push(t);
+            "12.25"
+        } else {
+            ""
+        };
+        let mean = if i < RESERVE_AFTER_ROWS {
+            "74"
+        } else {
+            "74.0625"
+        };
+        line_times.push(t);
+        text.push_str(&format!("{t},{mean},{icp}\n"));
+    }
+    let spec = import(&text, &scene()).unwrap();
+    assert_eq!(spec.channels[0].t_s, line_times);
+    assert_eq!(spec.channels[1].t_s, icp_times);
+    assert_eq!(spec.channels[0].values.last(), Some(&74.0625));
+    for c in &spec.channels {
+        assert_eq!(c.t_s.len(), c.values.len());
+        assert_eq!(c.t_s.capacity(), c.t_s.len(), "room not used is given back");
+    }
+}
