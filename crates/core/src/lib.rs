@@ -20,6 +20,7 @@ pub mod geometry;
 mod keyed;
 pub mod landmark;
 pub mod limits;
+pub mod order;
 pub mod organ;
 pub mod reading;
 pub mod record;

@@ -7,6 +7,7 @@ use std::collections::BTreeSet;
 
 use plumbline_core::geometry::Figure;
 use plumbline_core::landmark::Landmark;
+use plumbline_core::order::sort_short_by;
 use plumbline_core::report::HeightRow;
 
 use crate::show::{short, signed_whole_cm};
@@ -193,28 +194,12 @@ impl Picture {
     }
 }
 
-/// Orders the labels from top to bottom, keeping the order of labels at
-/// one height. A picture has a dozen labels, so an insertion sort does, and
-/// it spares the download a copy of the standard library's sort for them.
-fn top_down(labels: &mut [Label]) {
-    for i in 1..labels.len() {
-        let mut j = i;
-        while j > 0
-            && labels
-                .get(j)
-                .zip(labels.get(j - 1))
-                .is_some_and(|(lower, upper)| lower.at.y < upper.at.y)
-        {
-            labels.swap(j, j - 1);
-            j -= 1;
-        }
-    }
-}
-
 /// Moves labels apart so consecutive ones are at least a line apart, and
 /// keeps them inside the picture.
 fn spread(labels: &mut [Label], height: f64) {
-    top_down(labels);
+    // Top to bottom, labels at one height kept in order; a dozen labels,
+    // so the short sort does.
+    sort_short_by(labels, |lower, upper| lower.at.y < upper.at.y);
     let first = PAD;
     let last = height - PAD / 2.0;
     let mut floor = first;
@@ -280,37 +265,5 @@ mod tests {
             }
         }
         assert!(p.labels.iter().all(|l| l.at.y <= p.height));
-    }
-}
-
-/// Property tests (host only: proptest does not run in the browser).
-#[cfg(all(test, not(target_arch = "wasm32")))]
-mod properties {
-    use super::*;
-
-    proptest::proptest! {
-        /// The labels' insertion sort orders as the standard library's
-        /// stable sort does, ties kept in their order.
-        #[test]
-        fn labels_go_top_down_as_a_stable_sort_puts_them(
-            ys in proptest::collection::vec(-50i32..50, 0..24),
-        ) {
-            let labels: Vec<Label> = ys
-                .iter()
-                .enumerate()
-                .map(|(i, y)| Label {
-                    text: i.to_string(),
-                    full: String::new(),
-                    at: Xy { x: 0.0, y: f64::from(*y) / 2.0 },
-                    dot: Xy { x: 0.0, y: 0.0 },
-                })
-                .collect();
-            let mut ours = labels.clone();
-            top_down(&mut ours);
-            let mut std_sorted = labels;
-            std_sorted.sort_by(|a, b| a.at.y.total_cmp(&b.at.y));
-            let order = |v: &[Label]| v.iter().map(|l| l.text.clone()).collect::<Vec<_>>();
-            proptest::prop_assert_eq!(order(&ours), order(&std_sorted));
-        }
     }
 }

@@ -12,6 +12,7 @@
 use std::collections::BTreeMap;
 
 use crate::evaluate::{Ctx, Input, Linear, Term};
+use crate::order::{sort_short, sort_short_by};
 use crate::report::Contribution;
 use crate::scene::{input_owner, Owner, Param, Scene};
 use crate::units::{to_mmhg, Pressure};
@@ -102,7 +103,7 @@ impl<'a> Shifts<'a> {
             .flat_map(|(_, l)| l.inputs())
             .map(input_owner)
             .collect();
-        owners.sort();
+        sort_short(&mut owners);
         owners.dedup();
         for owner in owners {
             for (k, label, param) in self.by_owner.get(&owner).into_iter().flatten() {
@@ -128,7 +129,7 @@ impl<'a> Shifts<'a> {
                 effects.push((*k, label, effect(1.0), effect(-1.0)));
             }
         }
-        effects.sort_by_key(|e| e.0);
+        sort_short_by(&mut effects, |a, b| a.0 < b.0);
         let (mut down_sq, mut up_sq) = (0.0, 0.0);
         let mut contributions = Vec::new();
         for (_, label, a, b) in effects {
@@ -144,9 +145,10 @@ impl<'a> Shifts<'a> {
                 });
             }
         }
-        contributions.sort_by(|x, y| {
-            let size = |c: &Contribution| c.down_mmhg.abs().max(c.up_mmhg);
-            size(y).total_cmp(&size(x))
+        // Largest first.
+        let size = |c: &Contribution| c.down_mmhg.abs().max(c.up_mmhg);
+        sort_short_by(&mut contributions, |x, y| {
+            size(y).total_cmp(&size(x)).is_lt()
         });
         (contributions, down_sq.sqrt(), up_sq.sqrt())
     }

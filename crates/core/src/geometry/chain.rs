@@ -16,6 +16,7 @@ use super::body::{Body, GeometryParam, Segment, Shift};
 use super::position::{ArmPlacement, Lie, Position};
 use super::proportions::{self as prop, forward_cm, lateral_cm, standing};
 use crate::landmark::{Landmark, Side};
+use crate::order::map_of;
 use crate::units::{cm, to_cm, Length};
 
 #[derive(Clone, Copy, Debug, Default, PartialEq)]
@@ -294,9 +295,8 @@ pub fn place(body: &Body, position: &Position, shift: Option<Shift>) -> Placemen
         along_cm: p.dot(frame.along) - heart.dot(frame.along),
         height_cm: p.dot(frame.up) - heart.dot(frame.up),
     };
-    let points: BTreeMap<Landmark, PlanePoint> =
-        world.iter().map(|(k, p)| (*k, to_plane(*p))).collect();
-    let heights = points.iter().map(|(k, p)| (*k, cm(p.height_cm))).collect();
+    let points = map_of(world.iter().map(|(k, p)| (*k, to_plane(*p))));
+    let heights = map_of(points.iter().map(|(k, p)| (*k, cm(p.height_cm))));
     let limbs = limbs
         .into_iter()
         .map(|(name, joints)| Limb {

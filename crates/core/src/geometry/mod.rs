@@ -28,6 +28,7 @@ pub use position::{
 };
 
 use crate::landmark::Landmark;
+use crate::order::map_of;
 use crate::units::{cm, to_cm, Length};
 
 /// Body heights the proportions are meant for, cm. They are adult ratios.
@@ -67,21 +68,17 @@ pub fn estimate(body: &Body, position: &Position) -> BTreeMap<Landmark, Estimate
             }
         }
     }
-    nominal
-        .heights
-        .iter()
-        .map(|(landmark, h)| {
-            let (sq, largest) = sums.get(landmark).copied().unwrap_or((0.0, None));
-            (
-                *landmark,
-                Estimate {
-                    height: *h,
-                    uncertainty: cm(sq.sqrt()),
-                    largest: largest.map(|(p, _)| p),
-                },
-            )
-        })
-        .collect()
+    map_of(nominal.heights.iter().map(|(landmark, h)| {
+        let (sq, largest) = sums.get(landmark).copied().unwrap_or((0.0, None));
+        (
+            *landmark,
+            Estimate {
+                height: *h,
+                uncertainty: cm(sq.sqrt()),
+                largest: largest.map(|(p, _)| p),
+            },
+        )
+    }))
 }
 
 /// The body drawn in a picture plane, for a front end: polylines through the

@@ -2,13 +2,12 @@
 //! how its samples fill time, and means estimated from systolic and
 //! diastolic.
 
-use std::collections::BTreeMap;
-
 use serde::Serialize;
 
 use crate::case::Case;
 use crate::error::ErrorKind;
 use crate::evaluate::Input;
+use crate::order::map_of;
 use crate::reading::{Component, Method, Quantity};
 use crate::scene::Scene;
 use crate::units::{Pressure, PressureEntry, PressureUnit};
@@ -165,12 +164,7 @@ pub(super) fn add_estimated_means(scene: &Scene, channels: &mut Vec<Channel>) {
         let (Some(s), Some(d)) = (find(Component::Systolic), find(Component::Diastolic)) else {
             continue;
         };
-        let diastolic: BTreeMap<u64, Pressure> = d
-            .t_s
-            .iter()
-            .zip(&d.values)
-            .map(|(t, v)| (t.to_bits(), *v))
-            .collect();
+        let diastolic = map_of(d.t_s.iter().zip(&d.values).map(|(t, v)| (t.to_bits(), *v)));
         let (mut t_s, mut values) = (Vec::new(), Vec::new());
         for (t, sys) in s.t_s.iter().zip(&s.values) {
             if let Some(dia) = diastolic.get(&t.to_bits()).filter(|dia| **dia < *sys) {

@@ -7,6 +7,7 @@ use super::exposure::NotAnalysed;
 use super::rules::Rules;
 use super::timeline::Timeline;
 use crate::evaluate::{self, organ_place, Ctx, Input, Linear};
+use crate::order::sort_short;
 use crate::reading::Quantity;
 use crate::scene::Scene;
 use crate::target::Target;
@@ -82,7 +83,7 @@ pub(super) fn plan<'t>(scene: &'t Scene, timeline: &Timeline) -> Plan<'t> {
                 Some(form)
             })
             .collect();
-        assumed.sort();
+        sort_short(&mut assumed);
         assumed.dedup();
         let uses_record = forms.iter().flatten().any(|f| f.inputs().any(has_channel));
         if uses_record {

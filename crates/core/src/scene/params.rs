@@ -3,6 +3,7 @@
 
 use super::*;
 use crate::evaluate::Input;
+use crate::order::sort_short;
 use crate::units::column;
 
 impl Scene {
@@ -18,7 +19,7 @@ impl Scene {
                 geometry.extend(GeometryParam::all_for(position));
             }
         }
-        geometry.sort();
+        sort_short(&mut geometry);
         geometry.dedup();
         let mut params: Vec<Param> = geometry.into_iter().map(Param::Geometry).collect();
         params.extend(self.measured.keys().map(|l| Param::Measured(*l)));

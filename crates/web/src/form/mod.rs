@@ -16,6 +16,7 @@ use plumbline_core::case::{ArterialSpec, Case};
 use plumbline_core::error::Errors;
 use plumbline_core::geometry::{PositionSpec, Posture};
 use plumbline_core::landmark::{Landmark, Side};
+use plumbline_core::order::map_of;
 use plumbline_core::organ::{Metric, Organ};
 use plumbline_core::reading::{Level, Method, Quantity};
 use plumbline_core::target::{self, TargetSpec};
@@ -271,16 +272,16 @@ impl Form {
                 .unwrap_or_default(),
             position: PositionForm::from_spec(case.position.as_ref()),
             sources: case.arterial.iter().map(SourceForm::from_spec).collect(),
-            readings: case
-                .readings
-                .iter()
-                .map(|(q, r)| (*q, ReadingForm::from_spec(r)))
-                .collect(),
-            assumed: case
-                .assume
-                .iter()
-                .map(|(q, a)| (*q, AssumedForm::from_spec(a)))
-                .collect(),
+            readings: map_of(
+                case.readings
+                    .iter()
+                    .map(|(q, r)| (*q, ReadingForm::from_spec(r))),
+            ),
+            assumed: map_of(
+                case.assume
+                    .iter()
+                    .map(|(q, a)| (*q, AssumedForm::from_spec(a))),
+            ),
             targets,
             custom_targets,
             baseline: case.baseline.as_ref().map(BaselineForm::from_spec),
@@ -341,16 +342,16 @@ impl Form {
             .enumerate()
             .filter_map(|(i, s)| s.spec(i, &mut errors))
             .collect();
-        case.readings = self
-            .readings
-            .iter()
-            .filter_map(|(q, r)| Some((*q, r.spec(*q, &mut errors)?)))
-            .collect();
-        case.assume = self
-            .assumed
-            .iter()
-            .filter_map(|(q, a)| Some((*q, a.spec(*q, &mut errors)?)))
-            .collect();
+        case.readings = map_of(
+            self.readings
+                .iter()
+                .filter_map(|(q, r)| Some((*q, r.spec(*q, &mut errors)?))),
+        );
+        case.assume = map_of(
+            self.assumed
+                .iter()
+                .filter_map(|(q, a)| Some((*q, a.spec(*q, &mut errors)?))),
+        );
         let targets: Vec<TargetSpec> = self
             .targets
             .iter()

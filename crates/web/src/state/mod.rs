@@ -241,7 +241,8 @@ impl Checked {
     /// The landmarks worth a label in the picture: the heart reference, each
     /// checked organ's level, and every landmark a reading refers to.
     pub fn key_landmarks(&self) -> BTreeSet<Landmark> {
-        let mut set = BTreeSet::from([Landmark::Heart]);
+        let mut set = BTreeSet::new();
+        set.insert(Landmark::Heart);
         set.extend(self.report.organs.iter().filter_map(|o| o.level));
         let at = |level: &Level| match level {
             Level::At(l) => Some(*l),
