@@ -6,6 +6,8 @@
 //   1. a shared link with the beach-chair case: the brain BELOW, the value
 //      to defend, the cord not evaluated, the CLI's own headline
 //   2. the same in print (print media)
+//   3. a print from the browser's menu just after typing prints the check
+//      of what was typed, not the answer before it
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
 import { deflateRawSync } from 'node:zlib';
@@ -63,5 +65,32 @@ test('the brain verdict and the value to defend are in print', async () => {
   assert.ok(await defend.isVisible(), 'the value to defend prints');
   const verdict = page.locator('section.organ').filter({ hasText: 'Brain' }).getByText('BELOW').first();
   assert.ok(await verdict.isVisible(), 'the brain verdict prints');
+  await context.close();
+});
+
+test("a print from the browser's menu just after typing prints the check of what was typed", async () => {
+  const after = checkWithCli(BEACH_CHAIR.replace('"100 mmHg"', '"150 mmHg"').replace('"60 mmHg"', '"95 mmHg"'));
+  const { page, context, problems } = await openBeachChair();
+  const pin = page.locator('.answer-pin');
+  const before = await pin.textContent();
+  assert.ok(!before.includes(after.summary.headline), 'the typed values change the answer');
+  // Typed, then printed before the pause for the check is over: only
+  // microtasks run between them, as between a keystroke and a quick print.
+  const seen = await page.evaluate(async () => {
+    const box = document.querySelector('#f-arterial-0-blood_pressure');
+    const pinned = document.querySelector('.answer-pin');
+    const settle = async () => { for (let i = 0; i < 20; i += 1) await Promise.resolve(); };
+    box.value = '150/95';
+    box.dispatchEvent(new Event('input', { bubbles: true }));
+    await settle();
+    const typed = pinned.getAttribute('aria-busy');
+    window.dispatchEvent(new Event('beforeprint'));
+    await settle();
+    return { typed, printed: pinned.getAttribute('aria-busy'), text: pinned.textContent };
+  });
+  assert.equal(seen.typed, 'true', 'after typing, the answer waits for the pause');
+  assert.equal(seen.printed, 'false', 'before print, the typed values are checked');
+  assert.ok(seen.text.includes(after.summary.headline), seen.text);
+  assert.deepEqual(problems, [], 'no script errors');
   await context.close();
 });

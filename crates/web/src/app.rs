@@ -1,7 +1,8 @@
 //! The app: starts from what the device saved (or a shared link), keeps
 //! the device's copy in step (and in step with other windows of the app),
 //! applies the theme to the page, listens for a link pasted into the
-//! address bar and for a new version, and shows the check screen.
+//! address bar, for a new version and for a print from the browser's
+//! menu, and shows the check screen.
 //!
 //! These are the state's effects: the reducer only computes the next
 //! state, and everything that touches the browser runs here (or in the
@@ -134,10 +135,17 @@ pub fn App(_props: &AppProps) -> Html {
                     on_link.dispatch(Action::Session(SessionAction::OpenLink(fragment)));
                 }
             });
+            let on_update = d.clone();
             let update = EventListener::new(&window, browser::UPDATE_READY_EVENT, move |_| {
-                d.dispatch(Action::Session(SessionAction::UpdateReady));
+                on_update.dispatch(Action::Session(SessionAction::UpdateReady));
             });
-            move || drop((hash, update))
+            // Printed from the browser's own menu while typing: what was
+            // typed is checked first. The render runs as a microtask, before
+            // the browser lays the page out for print.
+            let print = EventListener::new(&window, "beforeprint", move |_| {
+                d.dispatch(Action::Recheck);
+            });
+            move || drop((hash, update, print))
         });
     }
     html! { <CheckPage state={state} /> }
