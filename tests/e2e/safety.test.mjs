@@ -94,3 +94,23 @@ test("a print from the browser's menu just after typing prints the check of what
   assert.deepEqual(problems, [], 'no script errors');
   await context.close();
 });
+
+test('on a phone, an answer taller than its pinned box fades at the cut, and its end shows whole', async () => {
+  const three = JSON.stringify({ ...JSON.parse(BEACH_CHAIR), concern: ['brain', 'cord', 'whole_body'] });
+  const { page, context } = await open(env.chrome.browser, env.server.url, {
+    viewport: { width: 390, height: 844 },
+    address: env.server.url + fragmentOf(three),
+  });
+  const box = await page.locator('.answer-pin').evaluate((pin) => {
+    const fade = getComputedStyle(pin, '::after');
+    const overflows = pin.scrollHeight > pin.clientHeight;
+    pin.scrollTop = pin.scrollHeight;
+    const last = [...pin.querySelectorAll('.verdict')].pop().getBoundingClientRect().bottom;
+    const inner = pin.getBoundingClientRect().top + pin.clientTop + pin.clientHeight;
+    return { overflows, position: fade.position, fade: parseFloat(fade.height), last, inner };
+  });
+  assert.ok(box.overflows, 'three organs overflow the pinned box on this phone');
+  assert.equal(box.position, 'sticky', 'the fade stays at the bottom edge while more lies below');
+  assert.ok(box.last <= box.inner - box.fade + 0.5, `the last organ ends above the fade: ${JSON.stringify(box)}`);
+  await context.close();
+});
