@@ -283,6 +283,22 @@ impl PositionSpec {
         }
     }
 
+    /// The table's angles (backrest, tilt) left out where the posture's
+    /// usual value is not zero: each field's name and the angle assumed in
+    /// its place. Every height above the heart follows from them, so a
+    /// check must say when they were not entered.
+    pub fn assumed_table_angles(&self) -> Vec<(&'static str, f64)> {
+        let usual = self.posture.defaults();
+        [
+            ("backrest_deg", self.backrest_deg, usual.backrest_deg),
+            ("tilt_deg", self.tilt_deg, usual.tilt_deg),
+        ]
+        .into_iter()
+        .filter(|(_, given, usual)| given.is_none() && *usual != 0.0)
+        .map(|(name, _, usual)| (name, usual))
+        .collect()
+    }
+
     /// Checks the spec and returns the resolved position.
     ///
     /// `field` is the path of the spec in the document, for messages.

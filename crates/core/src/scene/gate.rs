@@ -216,8 +216,26 @@ fn body(c: &mut Checker, case: &Case) -> Option<Body> {
 }
 
 /// What a position changes about the readings' conventions: side-lying has
-/// no phlebostatic axis, IAP is standardised flat.
+/// no phlebostatic axis, IAP is standardised flat; and a table angle the
+/// check assumed because none was entered.
 fn position_warnings(c: &mut Checker, case: &Case, position: Option<&Position>) {
+    if let Some(spec) = case.position.as_ref().filter(|_| position.is_some()) {
+        for (name, usual) in spec.assumed_table_angles() {
+            let what = if name == "tilt_deg" {
+                "tilt"
+            } else {
+                "backrest"
+            };
+            c.warn(
+                format!("position.{name}"),
+                format!(
+                    "the {what} angle was not entered: the usual {usual:.0}° for {} is assumed, \
+                     and every height above the heart follows from it; enter the angle as set",
+                    spec.posture.label()
+                ),
+            );
+        }
+    }
     if position.is_some_and(|p| p.lie.is_lateral()) {
         c.warn(
             "position",
@@ -411,5 +429,36 @@ mod tests {
         .unwrap();
         let flagged: Vec<&str> = s.warnings.iter().map(|w| w.field.as_str()).collect();
         assert_eq!(flagged, vec!["segments.upper_arm"]);
+    }
+
+    #[test]
+    fn a_table_angle_left_to_its_usual_value_is_said() {
+        let warned = |position: &str| -> Vec<String> {
+            let s = scene(&format!(
+                r#""patient": {{"height": "170 cm"}}, "position": {position}"#
+            ))
+            .unwrap();
+            s.warnings.iter().map(|w| w.field.clone()).collect()
+        };
+        assert_eq!(
+            warned(r#"{"posture": "beach_chair"}"#),
+            ["position.backrest_deg"]
+        );
+        let s = scene(r#""patient": {"height": "170 cm"}, "position": {"posture": "sitting"}"#)
+            .unwrap();
+        assert!(
+            s.warnings.first().unwrap().message.contains("usual 80°"),
+            "{:?}",
+            s.warnings
+        );
+        assert_eq!(
+            warned(r#"{"posture": "reverse_trendelenburg"}"#),
+            ["position.tilt_deg"]
+        );
+        assert!(warned(r#"{"posture": "beach_chair", "backrest_deg": 60}"#).is_empty());
+        assert!(
+            warned(r#"{"posture": "supine"}"#).is_empty(),
+            "flat is no assumption"
+        );
     }
 }
