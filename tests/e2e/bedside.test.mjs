@@ -86,6 +86,8 @@ const jobs = [
     ],
     check(report, json) {
       assert.equal(json.position.backrest_deg, undefined, "the posture's usual 30°");
+      assert.ok(report.warnings.some((w) => w.field === 'position.backrest_deg' && /usual 30° is ASSUMED/.test(w.message)),
+        'the usual angle is said to be assumed');
       assert.equal(json.arterial[0].method, 'transducer');
       assert.equal(json.readings.icp.value, '15 mmHg');
       assert.ok(report.summary.organs[0].value.startsWith('CPP'), 'with an ICP, CPP decides');

@@ -221,18 +221,10 @@ fn body(c: &mut Checker, case: &Case) -> Option<Body> {
 fn position_warnings(c: &mut Checker, case: &Case, position: Option<&Position>) {
     if let Some(spec) = case.position.as_ref().filter(|_| position.is_some()) {
         for (name, usual) in spec.assumed_table_angles() {
-            let what = if name == "tilt_deg" {
-                "tilt"
-            } else {
-                "backrest"
-            };
+            // Short: it stands beside the angle's box on the quick path.
             c.warn(
                 format!("position.{name}"),
-                format!(
-                    "the {what} angle was not entered: the usual {usual:.0}° for {} is assumed, \
-                     and every height above the heart follows from it; enter the angle as set",
-                    spec.posture.label()
-                ),
+                format!("not entered: the usual {usual:.0}° is ASSUMED; enter the angle as set"),
             );
         }
     }
@@ -447,7 +439,11 @@ mod tests {
         let s = scene(r#""patient": {"height": "170 cm"}, "position": {"posture": "sitting"}"#)
             .unwrap();
         assert!(
-            s.warnings.first().unwrap().message.contains("usual 80°"),
+            s.warnings
+                .first()
+                .unwrap()
+                .message
+                .contains("usual 80° is ASSUMED"),
             "{:?}",
             s.warnings
         );

@@ -48,7 +48,7 @@ pub fn AngleInput(props: &AngleInputProps) -> Html {
     let usual = props
         .preset
         .as_ref()
-        .map(|p| AttrValue::from(format!("{p} (usual)")));
+        .map(|p| AttrValue::from(format!("{p} (usual, assumed)")));
     html! {
         <PlainInput label={key.label()} path={key.path()} slot={Slot::Angle(key)}
             text={props.text.clone()} messages={props.messages.clone()}

@@ -14,7 +14,7 @@ use crate::components::field_messages::FieldMessages;
 use crate::components::length_input::LengthInput;
 use crate::fields::{number, number_text, LengthText};
 use crate::form::{AngleKey, Edit, PositionForm, Slot};
-use crate::notes::Notes;
+use crate::notes::{Message, Notes};
 
 /// Props of [`QuickPosition`].
 #[derive(Properties, PartialEq)]
@@ -61,6 +61,15 @@ pub fn QuickPosition(props: &QuickPositionProps) -> Html {
         })
     };
     let measured = position.measured && !position.angle(AngleKey::Backrest).is_empty();
+    // An empty angle box says "usual, assumed" in itself; the core's warning
+    // of it is listed with the others, which keeps the quick path short.
+    let angle_messages = |key: AngleKey| {
+        let mut messages = props.notes.at(&key.path());
+        if position.angle(key).is_empty() {
+            messages.retain(|m| !matches!(m, Message::Warning(_)));
+        }
+        messages
+    };
     html! {
         <fieldset class="group quick-position" id="f-position">
             <legend>{ "Position and size" }</legend>
@@ -79,7 +88,7 @@ pub fn QuickPosition(props: &QuickPositionProps) -> Html {
             if let Some(key) = main {
                 <AngleInput angle={key} text={position.angle(key).to_owned()}
                     preset={position.preset(key).map(|v| AttrValue::from(number_text(v)))}
-                    messages={props.notes.at(&key.path())} onedit={props.onedit.clone()} />
+                    messages={angle_messages(key)} onedit={props.onedit.clone()} />
                 if key == AngleKey::Backrest && measured {
                     <p class="measured-note">{ "Measured with the device: counted as ±2° in the ranges." }</p>
                 }
