@@ -82,7 +82,10 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
     // One callback for the page's life: a new one at every render would
     // count as a change and re-render every panel it is handed to.
     let onedit = use_callback(s.dispatcher(), |e: Edit, d| d.dispatch(Action::Edit(e)));
-    // What was just typed is checked and on the page before it prints.
+    // What was just typed is checked and on the page before it prints. The
+    // app's `beforeprint` check does not cover this button: called from
+    // this handler, `print()` lays the page out before any microtask (the
+    // render) can run, so the print waits for a zero timer.
     let onprint = {
         let d = s.dispatcher();
         Callback::from(move |_: MouseEvent| {
