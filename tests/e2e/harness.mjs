@@ -269,6 +269,26 @@ export async function unfold(page, title) {
 }
 
 /**
+ * The boxes one types into or picks from (inputs, selects, text areas; not
+ * the read-only ones) by the form they belong to: `loose` names those in
+ * no form (after each keystroke Chromium's
+ * autofill reads every box of the form typed into, and boxes in none as
+ * one form spanning the page), `largest` is the most boxes one form holds.
+ */
+export function boxGroups(page) {
+  return page.evaluate(() => {
+    const boxes = [...document.querySelectorAll('input:not([readonly]), select, textarea:not([readonly])')];
+    const counts = new Map();
+    for (const b of boxes) if (b.form) counts.set(b.form, (counts.get(b.form) ?? 0) + 1);
+    return {
+      boxes: boxes.length,
+      loose: boxes.filter((b) => !b.form).map((b) => b.id || b.outerHTML.slice(0, 80)),
+      largest: Math.max(0, ...counts.values()),
+    };
+  });
+}
+
+/**
  * The n-th arterial source's card, unfolded with its separate systolic,
  * diastolic and mean boxes showing.
  */

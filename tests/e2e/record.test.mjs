@@ -14,7 +14,7 @@ import { readFileSync, writeFileSync, mkdtempSync, rmSync } from 'node:fs';
 import { execFileSync } from 'node:child_process';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { suite, open, recordWithCli, screenshotPath, root, cli, until, caseJsonOf, unfold } from './harness.mjs';
+import { suite, open, recordWithCli, screenshotPath, root, cli, until, caseJsonOf, unfold, boxGroups } from './harness.mjs';
 
 const demoRecord = join(root, 'examples', 'beach-chair-record.csv');
 const demoCsv = readFileSync(demoRecord, 'utf8');
@@ -233,6 +233,11 @@ test('an eight-hour record at 1 Hz imports, analyses and charts without freezing
   await until(async () => (await mean.inputValue()) === '74', 'the typed mean');
   const typingTask = await page.evaluate(() => window.longest);
   await matchesCli(page, exposure);
+  // Each panel's boxes are a form of their own, so the browser's read of a
+  // form after a keystroke covers one panel, not every box on the page.
+  const groups = await boxGroups(page);
+  assert.deepEqual(groups.loose, [], 'no box outside a form');
+  assert.ok(groups.largest <= 30, `${groups.largest} of ${groups.boxes} boxes in one form`);
   // Eight hours do not fit a link: the dialog says so and offers the file.
   await page.getByRole('button', { name: /^Share/ }).click();
   const dialog = page.getByRole('dialog', { name: 'Share this check' });

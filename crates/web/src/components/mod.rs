@@ -54,7 +54,7 @@ pub mod verdicts;
 pub mod ward_entry;
 pub mod warnings_panel;
 
-use yew::Callback;
+use yew::{html, Callback, Html, SubmitEvent};
 
 /// A callback that passes on what `pick` makes of an event, when it makes
 /// something (a select whose value names nothing sends nothing).
@@ -68,4 +68,15 @@ pub fn picked<T: 'static, E: 'static>(
             to.emit(e);
         }
     })
+}
+
+/// Boxes that belong together, in a form of their own. After each keystroke
+/// Chromium's autofill reads every box of the form typed into, and boxes in
+/// no form count as one form spanning the page: on a slow tablet that read
+/// of some 120 boxes held up every keystroke's paint. A form per group keeps
+/// it to the group's few boxes. It lays out as if absent and never submits
+/// (Enter in a lone box stays put).
+pub fn box_group(body: Html) -> Html {
+    let stay = Callback::from(|e: SubmitEvent| e.prevent_default());
+    html! { <form class="box-group" onsubmit={stay}>{ body }</form> }
 }

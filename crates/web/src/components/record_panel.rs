@@ -13,6 +13,7 @@ use gloo::timers::callback::Timeout;
 use plumbline_core::record::{elapsed_words, Sampling};
 use yew::prelude::*;
 
+use crate::components::box_group;
 use crate::components::record_entry::RecordEntry;
 use crate::components::record_exports::RecordExports;
 use crate::components::record_file::RecordFile;
@@ -142,9 +143,13 @@ pub fn RecordPanel(props: &RecordPanelProps) -> Html {
             <details class="more record-more" open={r.file.is_some()}>
                 <summary>{ "Open a monitor export, or take every reading on screen as a sample" }</summary>
                 <div class="record-tools">
-                    <RecordFile dispatch={props.dispatch.clone()} problems={r.file.clone()}
-                        opened={r.opened.clone().map(AttrValue::from)} />
-                    <RecordEntry record={r.clone()} adds={adds} dispatch={props.dispatch.clone()} />
+                    { box_group(html! {
+                        <>
+                            <RecordFile dispatch={props.dispatch.clone()} problems={r.file.clone()}
+                                opened={r.opened.clone().map(AttrValue::from)} />
+                            <RecordEntry record={r.clone()} adds={adds} dispatch={props.dispatch.clone()} />
+                        </>
+                    }) }
                 </div>
             </details>
             if !r.is_empty() {
@@ -191,14 +196,20 @@ pub fn RecordPanel(props: &RecordPanelProps) -> Html {
                         </details>
                     </div>
                 }
-                <RecordReadings id={ward_id.clone()} rows={rows} total={total} clock_start={clock}
-                    onchange={onrecord.clone()} />
-                <RecordPositions start={r.start.clone()} changes={r.spec.positions.clone()}
-                    dispatch={props.dispatch.clone()} />
-                <RecordRules texts={r.rule_texts.clone()}
-                    in_force={a.as_ref().map(|a| AttrValue::from(a.exposure.rules.clone()))}
-                    definitions={a.as_ref().map(|a| AttrValue::from(a.exposure.definitions))}
-                    fit={r.fit.clone()} dispatch={props.dispatch.clone()} />
+                { box_group(html! {
+                    <RecordReadings id={ward_id.clone()} rows={rows} total={total} clock_start={clock}
+                        onchange={onrecord.clone()} />
+                }) }
+                { box_group(html! {
+                    <RecordPositions start={r.start.clone()} changes={r.spec.positions.clone()}
+                        dispatch={props.dispatch.clone()} />
+                }) }
+                { box_group(html! {
+                    <RecordRules texts={r.rule_texts.clone()}
+                        in_force={a.as_ref().map(|a| AttrValue::from(a.exposure.rules.clone()))}
+                        definitions={a.as_ref().map(|a| AttrValue::from(a.exposure.definitions))}
+                        fit={r.fit.clone()} dispatch={props.dispatch.clone()} />
+                }) }
                 <RecordExports record={r.clone()} checked={props.checked.clone()} />
                 <button type="button" class="remove" onclick={onclose}>{ "Close the record" }</button>
             }

@@ -15,6 +15,7 @@ use plumbline_core::record::TargetExposure;
 use yew::prelude::*;
 
 use crate::components::baseline_panel::BaselinePanel;
+use crate::components::box_group;
 use crate::components::case_json::CaseJson;
 use crate::components::caution::Caution;
 use crate::components::concern_picker::ConcernPicker;
@@ -53,9 +54,9 @@ pub struct CheckPageProps {
     pub state: Handle,
 }
 
-/// A folded section of the inputs, one tap away.
+/// A folded section of the inputs, one tap away, its boxes a group.
 fn fold(title: String, problem: bool, body: Html) -> Html {
-    html! { <Fold title={title} open_when={problem} class="fold">{ body }</Fold> }
+    html! { <Fold title={title} open_when={problem} class="fold">{ box_group(body) }</Fold> }
 }
 
 /// The check screen.
@@ -233,8 +234,10 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                     <section class="pane quick" aria-labelledby="h-patient">
                         <h2 id="h-patient">{ "The patient now" }</h2>
                         <div class="quick-top">
-                            <QuickPosition position={form.position.clone()} height={form.height.clone()}
-                                notes={notes.clone()} onedit={onedit.clone()} />
+                            { box_group(html! {
+                                <QuickPosition position={form.position.clone()} height={form.height.clone()}
+                                    notes={notes.clone()} onedit={onedit.clone()} />
+                            }) }
                             <div class="quick-figure">
                                 if let Some(c) = &checked {
                                     <FigureView checked={c.clone()} stale={stale} />
@@ -243,9 +246,11 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                                 }
                             </div>
                         </div>
-                        <QuickPressures source={form.sources.first().cloned()} readings={readings}
-                            notes={notes.clone()} onedit={onedit.clone()} />
-                        <ConcernPicker concern={form.concern.clone()} onedit={onedit.clone()} />
+                        { box_group(html! {
+                            <QuickPressures source={form.sources.first().cloned()} readings={readings}
+                                notes={notes.clone()} onedit={onedit.clone()} />
+                        }) }
+                        { box_group(html! { <ConcernPicker concern={form.concern.clone()} onedit={onedit.clone()} /> }) }
                     </section>
                     if whole {
                         <section class="pane folds" aria-label="More detail">
