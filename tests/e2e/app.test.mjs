@@ -330,6 +330,10 @@ for (const [name, viewport, colorScheme] of sizes) {
     const ids = await page.evaluate(() => [...document.querySelectorAll('[id]')].map((e) => e.id));
     assert.deepEqual(ids.filter((id, i) => ids.indexOf(id) !== i), [], 'ids are unique');
     await page.screenshot({ path: screenshotPath(name) });
+    // A full-page picture is taken without scrolling, and the parts laid out
+    // only when scrolled near (content-visibility) would show blank in it:
+    // show them as a scroll would.
+    await page.addStyleTag({ content: '* { content-visibility: visible !important; }' });
     await page.screenshot({ path: screenshotPath(`${name}-full`), fullPage: true });
     await context.close();
   });
