@@ -48,6 +48,16 @@ for js in boot.js sw.js; do
   sed -E -e '/^[[:space:]]*$/d' -e '/^[[:space:]]*(\/\/|\/\*\*|\*\/|\* |\*$)/d' -e 's/^[[:space:]]+//' "web/$js" > "dist/$js"
 done
 node --check dist/boot.js && node --check dist/sw.js || fail "boot.js or sw.js no longer parses without its comments"
+# The style sheet likewise, without its comments (none sits inside a
+# string) and indentation: 1.2 KB less gzip. Its braces must still pair.
+node -e '
+  const fs = require("fs");
+  const css = fs.readFileSync("web/style.css", "utf8");
+  const out = css.replace(/\/\*[\s\S]*?\*\//g, "").split("\n").map((l) => l.trim()).filter((l) => l).join("\n") + "\n";
+  const braces = (s) => [(s.match(/{/g) || []).length, (s.match(/}/g) || []).length].join();
+  if (out.includes("/*") || out.includes("*/") || braces(out) !== braces(css)) process.exit(1);
+  fs.writeFileSync("dist/style.css", out);
+' || fail "style.css did not keep its rules without its comments"
 
 # The offline worker keeps every file of this build, each with the SHA-256
 # of its bytes, so it can check its copies at every start and fetch a
