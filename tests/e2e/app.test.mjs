@@ -333,7 +333,11 @@ for (const [name, viewport, colorScheme] of sizes) {
     // A full-page picture is taken without scrolling, and the parts laid out
     // only when scrolled near (content-visibility) would show blank in it:
     // show them as a scroll would.
-    await page.addStyleTag({ content: '* { content-visibility: visible !important; }' });
+    await page.evaluate(() => {
+      for (const e of document.querySelectorAll('*')) {
+        if (getComputedStyle(e).contentVisibility === 'auto') e.style.contentVisibility = 'visible';
+      }
+    });
     await page.screenshot({ path: screenshotPath(`${name}-full`), fullPage: true });
     await context.close();
   });
