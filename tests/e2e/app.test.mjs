@@ -330,14 +330,6 @@ for (const [name, viewport, colorScheme] of sizes) {
     const ids = await page.evaluate(() => [...document.querySelectorAll('[id]')].map((e) => e.id));
     assert.deepEqual(ids.filter((id, i) => ids.indexOf(id) !== i), [], 'ids are unique');
     await page.screenshot({ path: screenshotPath(name) });
-    // A full-page picture is taken without scrolling, and the parts laid out
-    // only when scrolled near (content-visibility) would show blank in it:
-    // show them as a scroll would.
-    await page.evaluate(() => {
-      for (const e of document.querySelectorAll('*')) {
-        if (getComputedStyle(e).contentVisibility === 'auto') e.style.contentVisibility = 'visible';
-      }
-    });
     await page.screenshot({ path: screenshotPath(`${name}-full`), fullPage: true });
     await context.close();
   });
