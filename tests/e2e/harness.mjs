@@ -271,9 +271,9 @@ export async function unfold(page, title) {
 /**
  * The boxes one types into or picks from (inputs, selects, text areas; not
  * the read-only ones) by the form they belong to: `loose` names those in
- * no form (after each keystroke Chromium's
- * autofill reads every box of the form typed into, and boxes in none as
- * one form spanning the page), `largest` is the most boxes one form holds.
+ * no form (after each keystroke Chromium's autofill reads every box of the
+ * form typed into, and boxes in none as one form spanning the page),
+ * `largest` is the most boxes one form holds.
  */
 export function boxGroups(page) {
   return page.evaluate(() => {

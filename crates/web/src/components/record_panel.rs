@@ -200,10 +200,8 @@ pub fn RecordPanel(props: &RecordPanelProps) -> Html {
                     <RecordReadings id={ward_id.clone()} rows={rows} total={total} clock_start={clock}
                         onchange={onrecord.clone()} />
                 }) }
-                { box_group(html! {
-                    <RecordPositions start={r.start.clone()} changes={r.spec.positions.clone()}
-                        dispatch={props.dispatch.clone()} />
-                }) }
+                <RecordPositions start={r.start.clone()} changes={r.spec.positions.clone()}
+                    dispatch={props.dispatch.clone()} />
                 { box_group(html! {
                     <RecordRules texts={r.rule_texts.clone()}
                         in_force={a.as_ref().map(|a| AttrValue::from(a.exposure.rules.clone()))}

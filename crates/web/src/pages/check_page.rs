@@ -250,7 +250,7 @@ pub fn CheckPage(props: &CheckPageProps) -> Html {
                             <QuickPressures source={form.sources.first().cloned()} readings={readings}
                                 notes={notes.clone()} onedit={onedit.clone()} />
                         }) }
-                        { box_group(html! { <ConcernPicker concern={form.concern.clone()} onedit={onedit.clone()} /> }) }
+                        <ConcernPicker concern={form.concern.clone()} onedit={onedit.clone()} />
                     </section>
                     if whole {
                         <section class="pane folds" aria-label="More detail">
